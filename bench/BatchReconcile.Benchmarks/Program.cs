@@ -1,0 +1,2 @@
+using BenchmarkDotNet.Running;
+BenchmarkSwitcher.FromAssembly(typeof(Program).Assembly).Run(args);

@@ -1,0 +1,2 @@
+namespace BatchReconcile.Chemistry;
+internal static class Placeholder { }

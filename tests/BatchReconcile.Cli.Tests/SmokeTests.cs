@@ -1,0 +1,2 @@
+namespace BatchReconcile.Cli.Tests;
+public class SmokeTests { [Fact] public void Runs() => Assert.True(1 + 1 == 2); }
