@@ -1,0 +1,40 @@
+using System.CommandLine;
+
+namespace BatchReconcile.Cli;
+
+/// <summary>
+/// The command tree of <c>batchreconcile</c> and the single place where failures become exit codes:
+/// bad input or usage exits 2 with one line on stderr, anything unexpected exits 1.
+/// </summary>
+public static class CommandLine
+{
+    public static int Run(string[] args, TextWriter stdout, TextWriter stderr)
+    {
+        var globals = new GlobalOptions();
+        var root = new RootCommand("BatchReconcile: reconciles batch records step by step against the balanced equation.");
+        globals.AddTo(root);
+        root.Subcommands.Add(ChemCommands.Create(stdout));
+
+        var parsed = root.Parse(args);
+        if (parsed.Errors.Count > 0)
+        {
+            stderr.WriteLine($"batchreconcile: {parsed.Errors[0].Message} (see 'batchreconcile --help')");
+            return ExitCodes.BadInput;
+        }
+
+        try
+        {
+            return parsed.Invoke(new InvocationConfiguration { Output = stdout, Error = stderr, EnableDefaultExceptionHandler = false });
+        }
+        catch (UsageException e)
+        {
+            stderr.WriteLine($"batchreconcile: {e.Message}");
+            return ExitCodes.BadInput;
+        }
+        catch (Exception e)
+        {
+            stderr.WriteLine($"batchreconcile: unexpected failure: {e}");
+            return ExitCodes.UnexpectedFailure;
+        }
+    }
+}

@@ -1,0 +1,46 @@
+using System.Diagnostics;
+
+namespace BatchReconcile.Cli.Tests.Support;
+
+/// <summary>The outcome of one run of the real program.</summary>
+public sealed record ProgramResult(int ExitCode, string Stdout, string Stderr);
+
+/// <summary>Starts the built <c>batchreconcile</c> as a real process and waits for it.</summary>
+public static class ProgramRunner
+{
+    private static readonly TimeSpan Timeout = TimeSpan.FromSeconds(60);
+
+    public static async Task<ProgramResult> RunAsync(params string[] args)
+    {
+        var start = new ProcessStartInfo("dotnet")
+        {
+            RedirectStandardOutput = true,
+            RedirectStandardError = true,
+            UseShellExecute = false,
+            WorkingDirectory = RepoPaths.Root,
+            StandardOutputEncoding = System.Text.Encoding.UTF8,
+            StandardErrorEncoding = System.Text.Encoding.UTF8,
+        };
+        start.ArgumentList.Add(RepoPaths.ProgramDll);
+        foreach (var arg in args)
+        {
+            start.ArgumentList.Add(arg);
+        }
+
+        using var process = Process.Start(start) ?? throw new InvalidOperationException("dotnet did not start");
+        var stdout = process.StandardOutput.ReadToEndAsync();
+        var stderr = process.StandardError.ReadToEndAsync();
+        using var cts = new CancellationTokenSource(Timeout);
+        try
+        {
+            await process.WaitForExitAsync(cts.Token);
+        }
+        catch (OperationCanceledException)
+        {
+            process.Kill(entireProcessTree: true);
+            throw new TimeoutException($"batchreconcile {string.Join(' ', args)} did not finish in {Timeout}");
+        }
+
+        return new ProgramResult(process.ExitCode, await stdout, await stderr);
+    }
+}
