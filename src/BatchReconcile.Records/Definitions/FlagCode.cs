@@ -1,0 +1,15 @@
+namespace BatchReconcile.Records.Definitions;
+
+/// <summary>The findings a step reconciliation can raise. Their text codes are a contract (docs/cli.md).</summary>
+public enum FlagCode
+{
+    YieldLow,
+    YieldHigh,
+    YieldOverTheory,
+    BalanceGap,
+    BalanceSurplus,
+    EquivalentsOutOfRange,
+    ReactantMissing,
+    StepMissing,
+    ProductInWaste,
+}
