@@ -1,0 +1,129 @@
+namespace BatchReconcile.Chemistry.Metrics;
+
+/// <summary>Computes the green-chemistry and reconciliation metrics of one step from plain inputs.</summary>
+/// <remarks>
+/// <para>Simple E-factor. Roschangar, Sheldon and Senanayake (Green Chem. 2015) define sEF as ignoring
+/// solvents and water entirely. Here it is the complete E-factor with the net solvent and water taken out:
+/// sEF = (m_in − m_sw,in − (m_rec − m_sw,rec) − m_act)/m_act, where m_sw,in is the gross mass of charges
+/// outside the equation whose role is solvent or water and m_sw,rec the recovered rows with that role. So
+/// cEF − sEF = (m_sw,in − m_sw,rec)/m_act, and recovery of anything else (excess reagent) is credited in both,
+/// as the spec's cEF credits it. A reactant is never treated as solvent, even when it also serves as one
+/// (ethanol in an esterification): it is a raw material of the equation. The diluent of a reactant charged
+/// as a solution stays in sEF because it is not identified by role (conservative).</para>
+/// <para>Complete E-factor. Roschangar et al. describe cEF as assuming no recycling; the project spec subtracts
+/// m_rec, and the spec is followed here. PMI − 1 gives the no-recycling figure.</para>
+/// </remarks>
+public static class StepMetrics
+{
+    /// <summary>Relative window within which two n/ν values count as a tie.</summary>
+    /// <remarks>
+    /// An equimolar charge computed from rounded masses can differ in the last bits; without a window the
+    /// reported limiting reactant would flip on rounding noise. Within the window the first reactant in
+    /// equation order wins, so the choice is deterministic and readable; ξ_max is then that reactant's n/ν
+    /// (at most 1e-9 relative above the strict minimum, far below any weighing uncertainty).
+    /// </remarks>
+    internal const double TieRelativeWindow = 1e-9;
+
+    public static StepResult Compute(StepInput input)
+    {
+        ArgumentNullException.ThrowIfNull(input);
+        var reaction = input.Reaction;
+        var chargedByMaterial = SumAssayKgByMaterial(input.Charges);
+
+        var missing = reaction.Reactants
+            .Where(r => !(chargedByMaterial.GetValueOrDefault(r.Code) > 0))
+            .Select(r => r.Code)
+            .ToArray();
+        var limiting = missing.Length == 0 ? FindLimiting(reaction.Reactants, chargedByMaterial) : null;
+        double? maxExtent = limiting is null ? null : chargedByMaterial[limiting.Code] / limiting.MolarMassGPerMol / limiting.Coefficient;
+        double? limitingKmol = maxExtent * limiting?.Coefficient;
+
+        double reactantKg = reaction.Reactants.Sum(r => chargedByMaterial.GetValueOrDefault(r.Code));
+        double actualKg = input.Outputs.Where(o => o.Kind == OutputKind.Product).Sum(o => o.ProductKg);
+        double productInWasteKg = input.Outputs.Where(o => o.Kind == OutputKind.Waste).Sum(o => o.ProductKg);
+        double productInSamplesKg = input.Outputs.Where(o => o.Kind == OutputKind.Sample).Sum(o => o.ProductKg);
+        double inputKg = input.Charges.Sum(c => c.GrossKg);
+        double recoveredKg = input.Outputs.Where(o => o.Kind == OutputKind.Recovered).Sum(o => o.GrossKg);
+        double auxiliaryKg = inputKg - reactantKg;
+
+        var reactantCodes = reaction.Reactants.Select(r => r.Code).ToHashSet(StringComparer.Ordinal);
+        double solventWaterInKg = input.Charges
+            .Where(c => !reactantCodes.Contains(c.Material) && c.Role is AuxiliaryRole.Solvent or AuxiliaryRole.Water)
+            .Sum(c => c.GrossKg);
+        double solventWaterRecoveredKg = input.Outputs
+            .Where(o => o.Kind == OutputKind.Recovered && o.Role is AuxiliaryRole.Solvent or AuxiliaryRole.Water)
+            .Sum(o => o.GrossKg);
+
+        double? theoreticalKg = maxExtent * reaction.Product.MassPerExtent;
+        double? stoichiometricKg = maxExtent * reaction.ReactantMassPerExtent;
+        double actualExtent = actualKg / reaction.Product.MassPerExtent;
+        double netInputKg = inputKg - recoveredKg;
+
+        return new StepResult
+        {
+            Reactants = reaction.Reactants
+                .Select(r => Amount(r.Code, r.Coefficient, r.MolarMassGPerMol, chargedByMaterial.GetValueOrDefault(r.Code), limitingKmol))
+                .ToArray(),
+            Reagents = input.ReagentMolarMasses
+                .Where(kv => chargedByMaterial.ContainsKey(kv.Key))
+                .OrderBy(kv => kv.Key, StringComparer.Ordinal)
+                .Select(kv => Amount(kv.Key, null, kv.Value, chargedByMaterial[kv.Key], limitingKmol))
+                .ToArray(),
+            MissingReactants = missing,
+            LimitingReactant = limiting?.Code,
+            MaxExtentKmol = maxExtent,
+            ActualExtentKmol = actualExtent,
+            TheoreticalProductKg = theoreticalKg,
+            ActualProductKg = actualKg,
+            YieldPct = theoreticalKg is { } theo ? SafeRatio.Of(100 * actualKg, theo) : null,
+            AtomEconomyPct = reaction.AtomEconomyPct,
+            StoichiometricReactantKg = stoichiometricKg,
+            ReactantChargedKg = reactantKg,
+            StoichiometricFactor = stoichiometricKg is { } stoich ? SafeRatio.Of(reactantKg, stoich) : null,
+            ReactionMassEfficiencyPct = SafeRatio.Of(100 * actualKg, reactantKg),
+            InputKg = inputKg,
+            AuxiliaryKg = auxiliaryKg,
+            RecoveredKg = recoveredKg,
+            MaterialRecoveryParameter = SafeRatio.Of(reactantKg, netInputKg),
+            OverallReactionMassEfficiencyPct = SafeRatio.Of(100 * actualKg, netInputKg),
+            ProcessMassIntensity = SafeRatio.Of(inputKg, actualKg),
+            CompleteEFactor = SafeRatio.Of(netInputKg - actualKg, actualKg),
+            SimpleEFactor = SafeRatio.Of(
+                inputKg - solventWaterInKg - (recoveredKg - solventWaterRecoveredKg) - actualKg, actualKg),
+            SolventAndWaterChargedKg = solventWaterInKg,
+            SolventAndWaterRecoveredKg = solventWaterRecoveredKg,
+            ProductInWasteKg = productInWasteKg,
+            ProductInSamplesKg = productInSamplesKg,
+            Ladder = theoreticalKg is { } t && stoichiometricKg is { } s
+                ? LossLadder.Build(inputKg, auxiliaryKg, recoveredKg, reactantKg, s, t, actualKg, productInWasteKg, productInSamplesKg)
+                : null,
+            Balance = MassBalanceCalculator.Compute(input, inputKg, actualExtent, maxExtent),
+        };
+    }
+
+    private static Dictionary<string, double> SumAssayKgByMaterial(IEnumerable<ChargeRow> charges)
+    {
+        var sums = new Dictionary<string, double>(StringComparer.Ordinal);
+        foreach (var charge in charges)
+        {
+            sums[charge.Material] = sums.GetValueOrDefault(charge.Material) + charge.AssayKg;
+        }
+
+        return sums;
+    }
+
+    private static ReactionTerm FindLimiting(IReadOnlyList<ReactionTerm> reactants, Dictionary<string, double> chargedKg)
+    {
+        double PerCoefficient(ReactionTerm r) => chargedKg[r.Code] / r.MolarMassGPerMol / r.Coefficient;
+
+        double minimum = reactants.Min(PerCoefficient);
+        return reactants.First(r => PerCoefficient(r) <= minimum * (1 + TieRelativeWindow));
+    }
+
+    private static ChargedAmount Amount(string code, double? coefficient, double molarMass, double chargedKg, double? limitingKmol)
+    {
+        double kmol = chargedKg / molarMass;
+        double? equivalents = limitingKmol is { } nL ? SafeRatio.Of(kmol, nL) : null;
+        return new ChargedAmount(code, coefficient, molarMass, chargedKg, kmol, equivalents);
+    }
+}
