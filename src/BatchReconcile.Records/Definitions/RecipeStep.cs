@@ -10,7 +10,7 @@ namespace BatchReconcile.Records.Definitions;
 public sealed record RecipeStep(
     string Code,
     string Name,
-    StepReaction Reaction,
+    RecipeReaction Reaction,
     string ProductCode,
     ValueRange YieldPct,
     double BalanceTolerancePct,

@@ -2,4 +2,4 @@ namespace BatchReconcile.Records.Definitions;
 
 /// <summary>One species of a step's balanced reaction, by material code.</summary>
 /// <param name="Coefficient">The stoichiometric coefficient ν of the balanced equation (positive).</param>
-public sealed record ReactionTerm(string MaterialCode, double Coefficient);
+public sealed record ReactionSpecies(string MaterialCode, double Coefficient);

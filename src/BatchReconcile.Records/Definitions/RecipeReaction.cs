@@ -3,15 +3,15 @@ namespace BatchReconcile.Records.Definitions;
 /// <summary>A step's reaction after loading: balanced, in material codes, with its text as written.</summary>
 /// <param name="Text">The reaction as written in the definition file.</param>
 /// <param name="Balanced">The balanced equation in canonical form (what was used).</param>
-public sealed record StepReaction(
+public sealed record RecipeReaction(
     string Text,
     string Balanced,
-    IReadOnlyList<ReactionTerm> Reactants,
-    IReadOnlyList<ReactionTerm> Products)
+    IReadOnlyList<ReactionSpecies> Reactants,
+    IReadOnlyList<ReactionSpecies> Products)
 {
-    public ReactionTerm? FindReactant(string materialCode) =>
+    public ReactionSpecies? FindReactant(string materialCode) =>
         Reactants.FirstOrDefault(t => string.Equals(t.MaterialCode, materialCode, StringComparison.Ordinal));
 
-    public ReactionTerm? FindProduct(string materialCode) =>
+    public ReactionSpecies? FindProduct(string materialCode) =>
         Products.FirstOrDefault(t => string.Equals(t.MaterialCode, materialCode, StringComparison.Ordinal));
 }
