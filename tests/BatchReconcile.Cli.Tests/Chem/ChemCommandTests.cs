@@ -56,7 +56,7 @@ public class ChemCommandTests
 
     [Theory]
     [InlineData("CuSO4·5Xq2", "unknown element 'Xq' at")]
-    [InlineData("Ca3(PO4", "'(' at 3 is never closed")]
+    [InlineData("Ca3(PO4", "'(' at 4 is never closed")]
     public async Task Mass_of_a_bad_formula_exits_2_with_one_line_naming_the_position(string formula, string expected)
     {
         var result = await ProgramRunner.RunAsync("chem", "mass", formula, "--json");
