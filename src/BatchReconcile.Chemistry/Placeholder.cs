@@ -1,2 +1,0 @@
-namespace BatchReconcile.Chemistry;
-internal static class Placeholder { }
