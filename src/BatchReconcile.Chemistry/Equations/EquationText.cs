@@ -1,3 +1,4 @@
+using System.Diagnostics.CodeAnalysis;
 using BatchReconcile.Chemistry.Numerics;
 
 namespace BatchReconcile.Chemistry.Equations;
@@ -25,7 +26,7 @@ internal static class EquationText
         string text,
         Func<string, bool>? isKnownName,
         out IReadOnlyList<EquationTextTerm> terms,
-        out EquationError? error)
+        [NotNullWhen(false)] out EquationError? error)
     {
         ArgumentNullException.ThrowIfNull(text);
         terms = [];
@@ -106,7 +107,7 @@ internal static class EquationText
         int arrowPosition,
         Func<string, bool>? isKnownName,
         List<EquationTextTerm> terms,
-        out EquationError? error)
+        [NotNullWhen(false)] out EquationError? error)
     {
         error = null;
         var sideName = SideName(side);
@@ -133,7 +134,7 @@ internal static class EquationText
                 return false;
             }
 
-            terms.Add(term!);
+            terms.Add(term);
             termStart = i + 1;
         }
 
@@ -153,8 +154,8 @@ internal static class EquationText
         EquationSide side,
         int index,
         Func<string, bool>? isKnownName,
-        out EquationTextTerm? term,
-        out EquationError? error)
+        [NotNullWhen(true)] out EquationTextTerm? term,
+        [NotNullWhen(false)] out EquationError? error)
     {
         term = null;
         error = null;
@@ -258,8 +259,8 @@ internal static class EquationText
         string species,
         Rational coefficient,
         string where,
-        out EquationTextTerm? term,
-        out EquationError? error)
+        [NotNullWhen(true)] out EquationTextTerm? term,
+        [NotNullWhen(false)] out EquationError? error)
     {
         term = null;
         error = null;
