@@ -150,17 +150,12 @@ public static class PeriodicTable
     /// </summary>
     internal static int Lookup(char upper, char lower)
     {
-        uint u = (uint)(upper - 'A');
-        if (u >= 26) return 0;
-        uint l;
-        if (lower == '\0') l = 0;
-        else
-        {
-            l = (uint)(lower - 'a');
-            if (l >= 26) return 0;
-            l++;
-        }
-        return Slots[(int)(u * 27 + l)];
+        if (!char.IsAsciiLetterUpper(upper)) return 0;
+        int column;
+        if (lower == '\0') column = 0;
+        else if (char.IsAsciiLetterLower(lower)) column = lower - 'a' + 1;
+        else return 0;
+        return Slots[(upper - 'A') * 27 + column];
     }
 
     private static Element[] Build((string Symbol, string Name, int Z, double Weight)[] elements, (string Symbol, string Name, int Z, double Mass)[] isotopes)
