@@ -18,7 +18,7 @@ public static class CommandLine
         var parsed = root.Parse(args);
         if (parsed.Errors.Count > 0)
         {
-            stderr.WriteLine($"batchreconcile: {parsed.Errors[0].Message} (see 'batchreconcile --help')");
+            stderr.WriteLine($"batchreconcile: {string.Join("; ", parsed.Errors.Select(e => e.Message))} (see 'batchreconcile --help')");
             return ExitCodes.BadInput;
         }
 

@@ -2,11 +2,13 @@ namespace BatchReconcile.Cli;
 
 /// <summary>How figures are rounded for display and JSON.</summary>
 /// <remarks>
-/// Molar masses and percentages are given to 0.01: the abridged (five significant figure)
-/// atomic weights do not support more for typical molecules, and it matches the interface spec.
-/// Rounding is half away from zero, as a chemist rounds by hand.
+/// Molar masses and percentages are given to 0.01: the abridged (five significant figure) atomic
+/// weights do not support more for typical molecules. The value is taken to decimal first, which
+/// drops binary noise (206.285 stays 206.285, not 206.28499999...), then rounded half to even, the
+/// rule of ISO 80000-1 Annex B, so that a true tie does not always round up.
 /// </remarks>
 public static class Rounding
 {
-    public static double Hundredths(double value) => Math.Round(value, 2, MidpointRounding.AwayFromZero);
+    public static double Hundredths(double value) =>
+        double.IsFinite(value) ? (double)Math.Round((decimal)value, 2, MidpointRounding.ToEven) : value;
 }
