@@ -1,0 +1,64 @@
+using System.ComponentModel.DataAnnotations;
+using System.Globalization;
+
+namespace BatchReconcile.Hosting;
+
+/// <summary>The plant: its clock, its production day and where its data lives (section <c>Site</c>).</summary>
+public sealed class SiteOptions : IValidatableObject
+{
+    public const string Section = "Site";
+
+    [Required]
+    public string Name { get; set; } = string.Empty;
+
+    /// <summary>IANA time-zone id of the plant, e.g. Europe/Berlin.</summary>
+    [Required]
+    public string TimeZone { get; set; } = "UTC";
+
+    /// <summary>Local time at which a production day starts, "HH:mm".</summary>
+    [Required]
+    public string ProductionDayStart { get; set; } = "06:00";
+
+    /// <summary>Local time after the day's end at which its digest is written, "HH:mm".</summary>
+    [Required]
+    public string DigestTime { get; set; } = "07:30";
+
+    /// <summary>Root of the database and the folders below; relative paths are taken from the working directory.</summary>
+    [Required]
+    public string DataRoot { get; set; } = "data";
+
+    [Required]
+    public string Inbox { get; set; } = "inbox";
+
+    [Required]
+    public string Archive { get; set; } = "archive";
+
+    [Required]
+    public string Quarantine { get; set; } = "quarantine";
+
+    [Required]
+    public string Digests { get; set; } = "digests";
+
+    [Required]
+    public string Database { get; set; } = "batchreconcile.db";
+
+    public TimeZoneInfo Zone => TimeZoneInfo.FindSystemTimeZoneById(TimeZone);
+
+    public TimeOnly DayStart => TimeOnly.ParseExact(ProductionDayStart, "HH:mm", CultureInfo.InvariantCulture);
+
+    public IEnumerable<ValidationResult> Validate(ValidationContext validationContext)
+    {
+        if (!TimeZoneInfo.TryFindSystemTimeZoneById(TimeZone, out _))
+        {
+            yield return new ValidationResult($"Site:TimeZone '{TimeZone}' is not a known IANA time zone (e.g. Europe/Berlin)", [nameof(TimeZone)]);
+        }
+
+        foreach (var (name, value) in new[] { (nameof(ProductionDayStart), ProductionDayStart), (nameof(DigestTime), DigestTime) })
+        {
+            if (!TimeOnly.TryParseExact(value, "HH:mm", CultureInfo.InvariantCulture, DateTimeStyles.None, out _))
+            {
+                yield return new ValidationResult($"Site:{name} '{value}' is not a time of day as HH:mm (e.g. 06:00)", [name]);
+            }
+        }
+    }
+}
