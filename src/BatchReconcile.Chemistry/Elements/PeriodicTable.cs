@@ -1,11 +1,13 @@
 // Source of the weights: CIAAW/IUPAC standard atomic weights 2021, abridged to five significant
-// figures as printed in the IUPAC Periodic Table of the Elements (2022); elements whose standard
-// atomic weight is an interval use the conventional single value printed there (H 1.008, Li 6.94,
-// B 10.81, C 12.011, N 14.007, O 15.999, Mg 24.305, Si 28.085, S 32.06, Cl 35.45, Ar 39.95,
-// Br 79.904, Tl 204.38, Pb 207.2). Elements without a standard atomic weight are left out on purpose.
-// D and T: atomic masses of 2H and 3H from the Atomic Mass Evaluation AME2020
-// (M. Wang et al., Chinese Physics C 45 (2021) 030003), as listed by NIST "Atomic Weights and
-// Isotopic Compositions".
+// figures (Prohaska et al., Pure Appl. Chem. 94 (2022) 573, Table 1; the abridged table prints H as
+// 1.0080); elements whose standard atomic weight is an interval use the conventional abridged value
+// (H 1.008, Li 6.94, B 10.81, C 12.011, N 14.007, O 15.999, Mg 24.305, Si 28.085, S 32.06, Cl 35.45,
+// Ar 39.95, Br 79.904, Tl 204.38, Pb 207.2). Elements without a standard atomic weight are left out on
+// purpose. The tests check every value against a transcription of that table and against the npm
+// package chemical-elements.
+// D and T: atomic masses of 2H and 3H from the Atomic Mass Evaluation AME2020 (M. Wang et al., Chinese
+// Physics C 45 (2021) 030003) as used by CIAAW: 2.014101777844 and 3.01604928132. (NIST's "Atomic
+// Weights and Isotopic Compositions" lists the older AME2016 2H mass, 2.01410177812.)
 namespace BatchReconcile.Chemistry.Elements;
 
 /// <summary>
@@ -102,7 +104,7 @@ public static class PeriodicTable
         ("U", "uranium", 92, 238.03),
     ],
     [
-        ("D", "deuterium", 1, 2.01410177812),
+        ("D", "deuterium", 1, 2.014101777844),
         ("T", "tritium", 1, 3.01604928132),
     ]);
 

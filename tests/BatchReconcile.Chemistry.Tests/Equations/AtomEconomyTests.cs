@@ -7,18 +7,30 @@ public class AtomEconomyTests
 {
     // Overall equations of published route comparisons, balanced with by-products so the check passes.
     // The published figures were computed with rounded molar masses; the tolerance covers that rounding.
+    // Stored sources read for this table (none of them showed the exact percentages):
+    // - Boots reagents: a course handout "Synthesis of ibuprofen" (stored copy on Scribd) reproduces the
+    //   Boots atom-economy table from ACS, "Introduction to Green Chemistry: Instructional Activities for
+    //   Introductory Chemistry" (2002), p. 38, listing C10H14 134, C4H6O3 102, C4H7ClO2 122.5, C2H5ONa 68,
+    //   H3O 19, NH3O 33 as reagents - the same reagent set as the Boots equation below; its totals and
+    //   percentage lie past the stored excerpt.
+    // - A McGill University newsroom item (2018, quoting The Daily Beast) says "about 40 percent" of the
+    //   Boots inputs and "about 80 percent" of the BHC inputs end in the product: consistent with, but
+    //   less precise than, the 40 % and 77 % here.
+    // - Maleic anhydride: a stored Wikipedia copy gives the butane equation used below and says the benzene
+    //   route loses a third of the carbon as CO2; no percentage.
+    // - Ethylene oxide: no stored source with the 25 % figure was found.
     public static TheoryData<string, string, double, double, string> PublishedRoutes => new()
     {
         {
             // BHC: isobutylbenzene, acetic anhydride, H2, CO -> ibuprofen (+ acetic acid by-product).
             "C10H14 + C4H6O3 + H2 + CO -> C13H18O2 + C2H4O2", "C13H18O2", 77.4, 0.5,
-            "Cann & Connelly, Real-World Cases in Green Chemistry, ACS 2000 (BHC ibuprofen route, 77 %), from memory"
+            "Cann & Connelly, Real-World Cases in Green Chemistry, ACS 2000 (BHC ibuprofen route, 77 %), from memory; a McGill newsroom item (2018) says about 80 %"
         },
         {
             // Boots: six steps; the source sums all reagents including H3O+ and two waters (514.5 g/mol).
             "C10H14 + C4H6O3 + C4H7ClO2 + C2H5ONa + H3O^+ + NH2OH + 2 H2O -> C13H18O2 + C2H4O2 + NaCl + 2 C2H6O + CO2 + NH4^+ + 2 H2O",
             "C13H18O2", 40.0, 0.5,
-            "Cann & Connelly, Real-World Cases in Green Chemistry, ACS 2000 (Boots ibuprofen route, 40 %), from memory"
+            "Cann & Connelly, Real-World Cases in Green Chemistry, ACS 2000 (Boots ibuprofen route, 40 %), from memory; reagent set as in ACS Introduction to Green Chemistry (2002) p. 38, read in a stored handout; a McGill newsroom item (2018) says about 40 %"
         },
         {
             "C6H6 + 4.5 O2 -> C4H2O3 + 2 CO2 + 2 H2O", "C4H2O3", 44.1, 0.5,
@@ -26,7 +38,7 @@ public class AtomEconomyTests
         },
         {
             "C4H10 + 3.5 O2 -> C4H2O3 + 4 H2O", "C4H2O3", 57.6, 0.5,
-            "maleic anhydride from n-butane, 98/170 = 57.6 % as quoted in green chemistry texts, from memory"
+            "maleic anhydride from n-butane, 98/170 = 57.6 % as quoted in green chemistry texts, from memory; equation as in a stored Wikipedia copy (Maleic anhydride)"
         },
         {
             "C2H4 + Cl2 + Ca(OH)2 -> C2H4O + CaCl2 + H2O", "C2H4O", 25.0, 0.5,
@@ -72,7 +84,7 @@ public class AtomEconomyTests
     {
         var result = AtomEconomy.Compute(ChemicalEquation.Parse("C10H14 + C4H6O3 + H2 + CO -> C13H18O2 + C2H4O2"), "C13H18O2");
 
-        // Ibuprofen 206.28 g/mol: NIST Chemistry WebBook (206.2808), from memory.
+        // Ibuprofen 206.28 g/mol: NIST Chemistry WebBook (206.2808), from memory (no stored NIST page found).
         Assert.Equal(206.28, result.Value!.ProductMolarMass, 0.01);
 
         // The sum must be the coefficient-weighted reactant masses of the same formulas.

@@ -5,14 +5,16 @@ namespace BatchReconcile.Chemistry.Tests.Formulas;
 public class MolarMassTests
 {
     // Handbook molar masses. Handbooks print values from older or unabridged atomic weights, so the
-    // check allows 0.01 g/mol or 0.01 %, whichever is larger. All values are from memory of the cited
-    // tables, not read off them during this work.
-    // CRC = CRC Handbook of Chemistry and Physics, 97th ed., "Physical Constants of Inorganic/Organic Compounds";
-    // NIST = NIST Chemistry WebBook (SRD 69).
+    // check allows 0.01 g/mol or 0.01 %, whichever is larger. Where a stored copy of a source was read,
+    // the expected value is the one that source prints and the note says where it was read (NIST =
+    // NIST Chemistry WebBook, SRD 69, whose molecular weights use older, unabridged atomic weights;
+    // "Wikipedia chembox" = the compound's infobox in a stored Wikipedia copy). Entries still marked
+    // "from memory" were not found in a stored source: CRC = CRC Handbook of Chemistry and Physics,
+    // 97th ed., "Physical Constants of Inorganic/Organic Compounds", recalled, not read.
     public static TheoryData<string, double, string> Handbook => new()
     {
-        { "H2O", 18.015, "CRC / NIST, from memory" },
-        { "CO2", 44.009, "CRC / NIST, from memory" },
+        { "H2O", 18.0153, "NIST WebBook, water: molecular weight 18.0153 (Wikipedia chembox: 18.01528(33))" },
+        { "CO2", 44.0095, "NIST WebBook, carbon dioxide: molecular weight 44.0095 (Wikipedia chembox: 44.009)" },
         { "NaCl", 58.443, "CRC, from memory" },
         { "NaOH", 39.997, "CRC, from memory" },
         { "H2SO4", 98.079, "CRC, from memory" },
@@ -42,16 +44,16 @@ public class MolarMassTests
         { "[Cu(NH3)4]SO4·H2O", 245.75, "CRC, from memory" },
         { "C6H12O6", 180.156, "CRC / NIST (glucose), from memory" },
         { "C12H22O11", 342.30, "CRC / NIST (sucrose), from memory" },
-        { "C8H10N4O2", 194.19, "NIST (caffeine), from memory" },
+        { "C8H10N4O2", 194.1906, "NIST WebBook, caffeine (CAS 58-08-2): molecular weight 194.1906" },
         { "C13H18O2", 206.28, "NIST (ibuprofen), from memory" },
-        { "C9H8O4", 180.16, "NIST (aspirin), from memory" },
-        { "C8H9NO2", 151.16, "NIST (paracetamol), from memory" },
-        { "C2H5OH", 46.069, "NIST (ethanol), from memory" },
-        { "C7H8", 92.141, "NIST (toluene), from memory" },
-        { "C7H6O2", 122.12, "NIST (benzoic acid), from memory" },
-        { "CO(NH2)2", 60.056, "NIST (urea), from memory" },
-        { "C10H8", 128.17, "NIST (naphthalene), from memory" },
-        { "D2O", 20.028, "NIST (heavy water), from memory" },
+        { "C9H8O4", 180.1574, "NIST WebBook, aspirin (CAS 50-78-2): molecular weight 180.1574" },
+        { "C8H9NO2", 151.1626, "NIST WebBook, acetaminophen (CAS 103-90-2): molecular weight 151.1626" },
+        { "C2H5OH", 46.069, "Wikipedia chembox, ethanol: molar mass 46.069 g/mol" },
+        { "C7H8", 92.1384, "NIST WebBook, toluene (CAS 108-88-3): molecular weight 92.1384 (Wikipedia chembox: 92.141)" },
+        { "C7H6O2", 122.123, "Wikipedia chembox, benzoic acid: molar mass 122.123 g/mol" },
+        { "CO(NH2)2", 60.06, "Wikipedia chembox, urea: molar mass 60.06 g/mol (Merck Index 1952 entry: mol. wt. 60.06)" },
+        { "C10H8", 128.174, "Wikipedia chembox, naphthalene: molar mass 128.174 g/mol (Merck Index entry: 128.17)" },
+        { "D2O", 20.0276, "Wikipedia chembox, heavy water: molar mass 20.0276 g/mol" },
         { "SO4^2-", 96.06, "CRC (sulfate ion, electron mass ignored), from memory" },
         { "NH4^+", 18.04, "CRC (ammonium ion, electron mass ignored), from memory" },
         { "MnO4^-", 118.94, "CRC (permanganate ion, electron mass ignored), from memory" },

@@ -2,7 +2,8 @@ using BatchReconcile.Chemistry.Metrics;
 
 namespace BatchReconcile.Chemistry.Tests.Metrics;
 
-/// <summary>AE = 100·ν_P·M_P / Σ ν_r·M_r (Trost, Science 1991).</summary>
+/// <summary>AE = 100·ν_P·M_P / Σ ν_r·M_r (Trost, "The atom economy: a search for synthetic efficiency", Science 254 (1991) 1471;
+/// citation checked against the reference list of a stored Sheldon 2024 chapter, the paper itself not read).</summary>
 public class AtomEconomyTests
 {
     [Fact]
@@ -18,7 +19,8 @@ public class AtomEconomyTests
 
     /// <summary>
     /// Maleic anhydride routes, the classic published comparison: benzene oxidation about 44 %, butane oxidation about 58 %
-    /// (published route comparison; values from memory, hence the wide tolerance).
+    /// (published route comparison; values from memory, hence the wide tolerance: no stored source with the
+    /// percentages was found; a stored Wikipedia copy only says the benzene route loses a third of its carbon as CO2).
     /// </summary>
     [Theory]
     // 2 C6H6 + 9 O2 -> 2 C4H2O3 + 4 H2O + 4 CO2: 196.114 / (156.228 + 287.982) = 44.149 %

@@ -1,4 +1,3 @@
-using System.Diagnostics;
 using System.Text.Json;
 using BatchReconcile.Chemistry.Formulas;
 using BatchReconcile.Chemistry.Tests.Formulas;
@@ -46,52 +45,7 @@ public class MfParserOracleTests
 
     private static double?[] RunOracle(List<string> formulas)
     {
-        string root = RepositoryRoot();
-        string oracleDir = Path.Combine(root, "tests", "oracle");
-        string script = Path.Combine(oracleDir, "molar-mass.js");
-        const string Setup = "Run `npm ci --prefix tests/oracle` from the repository root (needs Node.js 20 and npm).";
-        Assert.True(Directory.Exists(Path.Combine(oracleDir, "node_modules", "mf-parser")),
-            $"The molar-mass oracle is not installed: {Path.Combine(oracleDir, "node_modules", "mf-parser")} is missing. {Setup}");
-
-        var start = new ProcessStartInfo("node", [script])
-        {
-            RedirectStandardInput = true,
-            RedirectStandardOutput = true,
-            RedirectStandardError = true,
-            UseShellExecute = false,
-            WorkingDirectory = oracleDir,
-        };
-
-        Process process;
-        try
-        {
-            process = Process.Start(start) ?? throw new InvalidOperationException("node did not start");
-        }
-        catch (System.ComponentModel.Win32Exception ex)
-        {
-            Assert.Fail($"Could not run `node` ({ex.Message}). Install Node.js 20, then: {Setup}");
-            throw;
-        }
-
-        using (process)
-        {
-            process.StandardInput.Write(JsonSerializer.Serialize(formulas));
-            process.StandardInput.Close();
-            var stderr = process.StandardError.ReadToEndAsync();
-            string stdout = process.StandardOutput.ReadToEnd();
-            Assert.True(process.WaitForExit(60_000), "the oracle did not finish within 60 s");
-            Assert.True(process.ExitCode == 0, $"the oracle failed (exit {process.ExitCode}): {stderr.Result}");
-            return JsonSerializer.Deserialize<double?[]>(stdout) ?? throw new InvalidOperationException("the oracle printed null");
-        }
-    }
-
-    private static string RepositoryRoot()
-    {
-        for (var dir = new DirectoryInfo(AppContext.BaseDirectory); dir is not null; dir = dir.Parent)
-        {
-            if (File.Exists(Path.Combine(dir.FullName, "BatchReconcile.sln"))) return dir.FullName;
-        }
-
-        throw new InvalidOperationException($"No BatchReconcile.sln above {AppContext.BaseDirectory}.");
+        string stdout = NodeOracle.Run("molar-mass.js", "mf-parser", JsonSerializer.Serialize(formulas));
+        return JsonSerializer.Deserialize<double?[]>(stdout) ?? throw new InvalidOperationException("the oracle printed null");
     }
 }
