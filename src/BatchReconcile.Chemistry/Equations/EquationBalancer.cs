@@ -12,6 +12,10 @@ namespace BatchReconcile.Chemistry.Equations;
 /// one free ratio (several independent reactions mixed in one equation) the balancer refuses rather
 /// than pick one.
 /// </para>
+/// <para>
+/// A balanced equation is an atom and charge account only: it does not say that a reaction happens
+/// or is safe. Results support, and do not replace, site procedures, local codes and qualified review.
+/// </para>
 /// </summary>
 public static class EquationBalancer
 {

@@ -139,7 +139,7 @@ public sealed class Formula : IEquatable<Formula>
     private static int HillRank(Element e) => e.Symbol switch { "C" => 0, "H" => 1, _ => 2 };
 
     // Products like 0.95m * 2m keep trailing zeros ("1.90"); counts are shown and compared without them.
-    private static decimal Normalize(decimal value) =>
+    private static decimal Normalize(decimal value) => value.Scale == 0 ? value :
         decimal.Parse(value.ToString("0.############################", CultureInfo.InvariantCulture), NumberStyles.Number, CultureInfo.InvariantCulture);
 
     public bool Equals(Formula? other) => other is not null && string.Equals(Hill, other.Hill, StringComparison.Ordinal);
