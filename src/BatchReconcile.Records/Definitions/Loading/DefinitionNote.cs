@@ -1,0 +1,24 @@
+namespace BatchReconcile.Records.Definitions.Loading;
+
+/// <summary>
+/// Something the loader did on the user's behalf that is worth a log line, such as balancing a
+/// reaction written without coefficients. Not a problem: the definitions were accepted.
+/// </summary>
+public sealed record DefinitionNote(string File, string? Recipe, string? Step, string Message)
+{
+    public override string ToString()
+    {
+        var where = File;
+        if (Recipe is not null)
+        {
+            where += $", recipe {Recipe}";
+        }
+
+        if (Step is not null)
+        {
+            where += $", step {Step}";
+        }
+
+        return $"{where}: {Message}";
+    }
+}
