@@ -1,0 +1,10 @@
+using BatchReconcile.Records.Definitions;
+
+namespace BatchReconcile.Pipeline;
+
+/// <summary>The process definitions cannot be used: start-up stops with every problem named.</summary>
+public sealed class DefinitionsException(string folder, IReadOnlyList<DefinitionError> errors)
+    : Exception($"process definitions in {folder} refused ({errors.Count} problem{(errors.Count == 1 ? "" : "s")}): {string.Join("; ", errors)}")
+{
+    public IReadOnlyList<DefinitionError> Errors { get; } = errors;
+}
