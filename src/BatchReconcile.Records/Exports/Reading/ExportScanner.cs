@@ -1,0 +1,564 @@
+using BatchReconcile.Records.Definitions;
+using CsvHelper;
+using static System.FormattableString;
+
+namespace BatchReconcile.Records.Exports.Reading;
+
+/// <summary>One streaming read of one export: checks every row against the contract and the process
+/// catalogue, groups rows by batch, and hands each batch on as soon as its last row has been read.</summary>
+/// <remarks>
+/// Memory: with a first pass (<paramref name="lastRowOfBatch"/>) a batch is handed on at its last row,
+/// so what is held is the batches open at the same time: one batch when each batch's rows are
+/// contiguous. Without it (a stream that cannot be read twice) every batch stays open to the end.
+/// Once the file has an error no rows are kept at all, only what the checks of a whole batch need.
+/// </remarks>
+internal sealed class ExportScanner(
+    string fileName,
+    ProcessCatalog catalog,
+    Action<BatchRecord> onBatch,
+    ExportErrorList errors,
+    Dictionary<string, long>? lastRowOfBatch)
+{
+    private const long Closed = -1;
+
+    private static readonly (string Text, EntryKind Kind)[] Entries =
+    [
+        ("charge", EntryKind.Charge),
+        ("product", EntryKind.Product),
+        ("waste", EntryKind.Waste),
+        ("recovered", EntryKind.Recovered),
+        ("sample", EntryKind.Sample),
+        ("analysis", EntryKind.Analysis),
+    ];
+
+    private readonly Dictionary<string, OpenBatch> _open = new(StringComparer.Ordinal);
+    private readonly HashSet<long> _malformedLines = [];
+    private ExportHeader? _header;
+    private (long Line, string Raw, string Reason)? _headerMalformed;
+    private bool _rowsDropped;
+    private int _rowsHeld;
+    private int _peakRowsHeld;
+    private int _peakBatchesHeld;
+    private int _delivered;
+    private long _dataRows;
+
+    /// <summary>Options of both passes: the contract's dialect, nothing detected or guessed.</summary>
+    public static CsvReaderOptions Options(Action<CsvMalformedRecord>? onMalformed) => CsvReaderOptions.Default with
+    {
+        Separator = ',',
+        HasHeader = true,
+        Mode = CsvMode.Rfc4180,
+        AllowLineBreaksInQuotes = true,
+        SkipEmptyLines = true,
+        TrimWhitespace = false,
+        TrackLineNumbers = true,
+        DetectSeparatorHint = false,
+        MalformedData = CsvMalformedDataHandling.Recover,
+        FieldCountMismatch = CsvFieldCountHandling.Allow,
+        OnMalformedRecord = onMalformed,
+    };
+
+    /// <summary>First pass: the row number of each batch's last row, or null when the header has no batch column.</summary>
+    public static Dictionary<string, long>? FindLastRows(CsvReader reader)
+    {
+        var batchIndex = -1;
+        for (var i = 0; i < reader.Headers.Count; i++)
+        {
+            if (string.Equals(reader.Headers[i].Trim(), ExportColumns.Batch, StringComparison.OrdinalIgnoreCase))
+            {
+                batchIndex = i;
+                break;
+            }
+        }
+
+        if (batchIndex < 0)
+        {
+            return null;
+        }
+
+        var last = new Dictionary<string, long>(StringComparer.Ordinal);
+        while (reader.Read())
+        {
+            var key = BatchKey(reader, batchIndex);
+            if (key.Length > 0)
+            {
+                last[key] = reader.RowNumber;
+            }
+        }
+
+        return last;
+    }
+
+    /// <summary>Called by the reader for each record with broken quoting (possibly ahead of <see cref="CsvReader.Read"/>).</summary>
+    public void OnMalformed(CsvMalformedRecord record)
+    {
+        var reason = record.Reason switch
+        {
+            CsvMalformedReason.StrayQuote =>
+                "a quote (\") inside an unquoted field; a field that contains quotes must be enclosed in quotes, each inner quote doubled (\"\")",
+            CsvMalformedReason.TextAfterClosingQuote =>
+                "text after the closing quote of a quoted field; the whole field must be inside the quotes, each inner quote doubled (\"\")",
+            CsvMalformedReason.UnterminatedQuote =>
+                "a quoted field is never closed, so the rest of the file was read into it; close the quote",
+            _ => Invariant($"the row is not valid CSV ({record.Reason})"),
+        };
+        if (record.RecordNumber == 1)
+        {
+            // Reported once the header is checked: a semicolon header gets its one clear error instead.
+            _headerMalformed = (record.LineNumber, Shorten(record.RawRecord), reason);
+            return;
+        }
+
+        _malformedLines.Add(record.LineNumber);
+        errors.Add(record.LineNumber, "", Shorten(record.RawRecord), reason);
+    }
+
+    public ExportScanResult Run(CsvReader reader)
+    {
+        _header = ExportHeader.Analyze(reader.Headers, errors, out var semicolon);
+        if (_headerMalformed is { } bad && !semicolon)
+        {
+            errors.Add(bad.Line, "", bad.Raw, "header: " + bad.Reason);
+        }
+
+        if (_header is null)
+        {
+            return Result();
+        }
+
+        var batchIndex = _header.IndexOf(ExportColumns.Batch);
+        while (reader.Read())
+        {
+            var fields = new string[reader.FieldCount];
+            for (var i = 0; i < fields.Length; i++)
+            {
+                fields[i] = reader.GetString(i) ?? "";
+            }
+
+            if (fields.All(string.IsNullOrWhiteSpace))
+            {
+                // A line of separators only (",,,,"), as spreadsheets leave at the end: nothing to read.
+                continue;
+            }
+
+            _dataRows++;
+            var line = (int)Math.Clamp(reader.LineNumber, 1, int.MaxValue);
+            ReadRow(fields, line);
+
+            var key = BatchKey(reader, batchIndex);
+            if (lastRowOfBatch is not null && key.Length > 0
+                && lastRowOfBatch.TryGetValue(key, out var lastRow) && lastRow == reader.RowNumber)
+            {
+                Close(key);
+            }
+
+            DropRowsOnceRejected();
+        }
+
+        foreach (var batch in _open.Values.OrderBy(b => b.FirstLine).ToList())
+        {
+            Close(batch.Id);
+        }
+
+        if (_dataRows == 0 && errors.Count == 0)
+        {
+            errors.Add(1, "", "", "the file has a header but no data rows");
+        }
+
+        return Result();
+    }
+
+    private ExportScanResult Result() =>
+        new(fileName, errors.ToList(), _delivered, _dataRows, _peakRowsHeld, _peakBatchesHeld);
+
+    private void ReadRow(string[] fields, int line)
+    {
+        var header = _header!;
+        if (_malformedLines.Contains(line))
+        {
+            // Already reported; values read out of broken quoting would only add confusing errors.
+            return;
+        }
+
+        if (fields.Length != header.FieldCount)
+        {
+            errors.Add(line, "", Shorten(string.Join(",", fields)),
+                Invariant($"this row has {fields.Length} fields but the header has {header.FieldCount}; a value that contains a comma must be in double quotes"));
+            return;
+        }
+
+        var errorsBefore = errors.Count;
+        string Field(string column)
+        {
+            var i = header.IndexOf(column);
+            return i < 0 ? "" : fields[i].Trim();
+        }
+
+        void Error(string column, string value, string reason) => errors.Add(line, column, value, reason);
+
+        for (var i = 0; i < fields.Length; i++)
+        {
+            if (fields[i].Contains('\uFFFD', StringComparison.Ordinal))
+            {
+                Error(ContractName(header.Names[i]), fields[i], "contains bytes that are not valid UTF-8; export the file as UTF-8");
+            }
+        }
+
+        // batch
+        var batchId = Field(ExportColumns.Batch);
+        if (batchId.Length == 0)
+        {
+            Error(ExportColumns.Batch, "", "batch is required on every row");
+        }
+
+        // recipe and recipe_version
+        var recipeText = Field(ExportColumns.Recipe);
+        var versionText = Field(ExportColumns.RecipeVersion);
+        int? versionGiven = null;
+        var versionOk = true;
+        if (versionText.Length > 0)
+        {
+            if (ExportValues.TryParseVersion(versionText, out var v))
+            {
+                versionGiven = v;
+            }
+            else
+            {
+                versionOk = false;
+                Error(ExportColumns.RecipeVersion, versionText, "recipe_version must be a whole number such as 2 (or empty for the newest version)");
+            }
+        }
+
+        Recipe? recipe = null;
+        if (recipeText.Length == 0)
+        {
+            Error(ExportColumns.Recipe, "", "recipe is required on every row");
+        }
+        else if (catalog.FindRecipe(recipeText) is null)
+        {
+            Error(ExportColumns.Recipe, recipeText, $"unknown recipe '{recipeText}'; it is not in the process definitions{Known(catalog.Recipes.Select(r => r.Code).Distinct(StringComparer.OrdinalIgnoreCase))}");
+        }
+        else if (versionOk)
+        {
+            recipe = catalog.FindRecipe(recipeText, versionGiven);
+            if (recipe is null)
+            {
+                var versions = catalog.Recipes
+                    .Where(r => string.Equals(r.Code, recipeText, StringComparison.OrdinalIgnoreCase))
+                    .Select(r => r.Version.ToString(System.Globalization.CultureInfo.InvariantCulture));
+                Error(ExportColumns.RecipeVersion, versionText, $"recipe {recipeText} has no version {versionText} (versions: {string.Join(", ", versions)})");
+            }
+        }
+
+        // step
+        var stepText = Field(ExportColumns.Step);
+        RecipeStep? step = null;
+        if (stepText.Length == 0)
+        {
+            Error(ExportColumns.Step, "", "step is required on every row");
+        }
+        else if (recipe is not null)
+        {
+            step = recipe.FindStep(stepText);
+            if (step is null)
+            {
+                Error(ExportColumns.Step, stepText, Invariant($"recipe {recipe.Code} version {recipe.Version} has no step '{stepText}' (steps: {string.Join(", ", recipe.Steps.Select(s => s.Code))})"));
+            }
+        }
+
+        // entry
+        var entryText = Field(ExportColumns.Entry);
+        EntryKind? entry = null;
+        foreach (var (text, kind) in Entries)
+        {
+            if (string.Equals(text, entryText, StringComparison.OrdinalIgnoreCase))
+            {
+                entry = kind;
+            }
+        }
+
+        if (entry is null)
+        {
+            Error(ExportColumns.Entry, entryText, entryText.Length == 0
+                ? "entry is required on every row: charge, product, waste, recovered, sample or analysis"
+                : "entry must be charge, product, waste, recovered, sample or analysis");
+        }
+
+        var entryName = entryText.ToLowerInvariant();
+        var isAnalysis = entry == EntryKind.Analysis;
+
+        // material
+        var materialText = Field(ExportColumns.Material);
+        Material? material = null;
+        var materialRequired = entry is EntryKind.Charge or EntryKind.Product or EntryKind.Recovered or EntryKind.Analysis;
+        if (materialText.Length > 0)
+        {
+            material = catalog.FindMaterial(materialText);
+            if (material is null)
+            {
+                Error(ExportColumns.Material, materialText, $"unknown material '{materialText}'; it is not in the process definitions");
+            }
+        }
+        else if (materialRequired)
+        {
+            Error(ExportColumns.Material, "", $"material is required on {Article(entryName)} {entryName} row");
+        }
+
+        // stream
+        var streamText = Field(ExportColumns.Stream);
+        if (isAnalysis && streamText.Length == 0)
+        {
+            Error(ExportColumns.Stream, "", "an analysis row must name the stream it describes (column stream)");
+        }
+
+        // quantity and unit
+        var quantityText = Field(ExportColumns.Quantity);
+        var unitText = Field(ExportColumns.Unit);
+        double? quantity = null;
+        MassUnit? unit = null;
+        if (isAnalysis)
+        {
+            if (quantityText.Length > 0)
+            {
+                Error(ExportColumns.Quantity, quantityText, "an analysis row has no quantity: it only says what part of its stream is which material");
+            }
+
+            if (unitText.Length > 0)
+            {
+                Error(ExportColumns.Unit, unitText, "an analysis row has no quantity, so no unit either");
+            }
+        }
+        else
+        {
+            if (quantityText.Length == 0)
+            {
+                if (entry is not null)
+                {
+                    Error(ExportColumns.Quantity, "", $"quantity is required on {Article(entryName)} {entryName} row");
+                }
+            }
+            else if (ExportValues.TryParseNumber(quantityText, out var q) is { } why)
+            {
+                Error(ExportColumns.Quantity, quantityText, why);
+            }
+            else if (q < 0)
+            {
+                Error(ExportColumns.Quantity, quantityText, "must not be negative: a quantity is a gross mass of 0 or more");
+            }
+            else
+            {
+                quantity = q;
+            }
+
+            if (unitText.Length == 0)
+            {
+                if (quantityText.Length > 0)
+                {
+                    Error(ExportColumns.Unit, "", "unit is required with a quantity: kg, g, mg, t or lb");
+                }
+            }
+            else if (!MassUnit.TryParse(unitText, out unit))
+            {
+                Error(ExportColumns.Unit, unitText, $"unknown unit '{unitText}'; use kg, g, mg, t or lb");
+            }
+        }
+
+        // assay_pct
+        var assayText = Field(ExportColumns.AssayPct);
+        double? assay = null;
+        if (assayText.Length == 0)
+        {
+            if (isAnalysis)
+            {
+                Error(ExportColumns.AssayPct, "", "assay_pct is required on an analysis row: the mass % of the material in the stream");
+            }
+        }
+        else if (ExportValues.TryParseNumber(assayText, out var a) is { } why)
+        {
+            Error(ExportColumns.AssayPct, assayText, why);
+        }
+        else if (!(a > 0 && a <= 100))
+        {
+            Error(ExportColumns.AssayPct, assayText, "assay_pct must be more than 0 and at most 100 (mass %)");
+        }
+        else if (materialText.Length == 0)
+        {
+            // Where the material is required its absence is already reported.
+            if (!materialRequired)
+            {
+                Error(ExportColumns.AssayPct, assayText, "assay_pct needs a material: it is the mass % of that material");
+            }
+        }
+        else
+        {
+            assay = a;
+        }
+
+        // recorded_at
+        var timeText = Field(ExportColumns.RecordedAt);
+        DateTimeOffset? recordedAt = null;
+        if (timeText.Length > 0)
+        {
+            if (ExportValues.TryParseTime(timeText, out var t) is { } why)
+            {
+                Error(ExportColumns.RecordedAt, timeText, why);
+            }
+            else
+            {
+                recordedAt = t;
+            }
+        }
+
+        if (batchId.Length == 0)
+        {
+            return;
+        }
+
+        var batch = Open(batchId, line);
+        if (batch is null)
+        {
+            return;
+        }
+
+        if (recipe is not null)
+        {
+            if (batch.Recipe is null)
+            {
+                batch.SetRecipe(recipe, line);
+            }
+            else if (!string.Equals(batch.Recipe.Code, recipe.Code, StringComparison.OrdinalIgnoreCase) || batch.Recipe.Version != recipe.Version)
+            {
+                var sameCode = string.Equals(batch.Recipe.Code, recipe.Code, StringComparison.OrdinalIgnoreCase);
+                Error(sameCode ? ExportColumns.RecipeVersion : ExportColumns.Recipe, sameCode ? versionText : recipeText,
+                    Invariant($"batch {batchId} is recorded with recipe {batch.Recipe.Code} version {batch.Recipe.Version} on line {batch.RecipeLine}; this row says {recipe.Code} version {recipe.Version}, and a batch has one recipe"));
+            }
+        }
+
+        if (stepText.Length > 0 && streamText.Length > 0)
+        {
+            if (isAnalysis)
+            {
+                batch.AddAnalysis(line, stepText, streamText);
+            }
+            else
+            {
+                batch.AddStream(stepText, streamText);
+            }
+        }
+
+        if (errors.Count == 0 && errors.Count == errorsBefore && batch.Rows is not null)
+        {
+            var raw = new KeyValuePair<string, string>[fields.Length];
+            for (var i = 0; i < fields.Length; i++)
+            {
+                raw[i] = new(header.Names[i], fields[i]);
+            }
+
+            batch.Rows.Add(new RecordRow(
+                line,
+                batchId,
+                recipe!.Code,
+                versionGiven,
+                step!.Code,
+                entry!.Value,
+                material?.Code,
+                streamText.Length > 0 ? streamText : null,
+                quantity is { } qty ? unit!.ToKilograms(qty) : null,
+                quantity,
+                unit,
+                assay,
+                Field(ExportColumns.Lot) is { Length: > 0 } lot ? lot : null,
+                recordedAt,
+                raw));
+            _rowsHeld++;
+            _peakRowsHeld = Math.Max(_peakRowsHeld, _rowsHeld);
+        }
+    }
+
+    private OpenBatch? Open(string id, int line)
+    {
+        if (_open.TryGetValue(id, out var batch))
+        {
+            return batch;
+        }
+
+        if (lastRowOfBatch is not null && lastRowOfBatch.TryGetValue(id, out var last) && last == Closed)
+        {
+            errors.Add(line, ExportColumns.Batch, id, "the file changed while it was read (this batch had ended); read the file again once it is complete");
+            return null;
+        }
+
+        batch = new OpenBatch(id, line);
+        if (_rowsDropped)
+        {
+            batch.DropRows();
+        }
+
+        _open.Add(id, batch);
+        _peakBatchesHeld = Math.Max(_peakBatchesHeld, _open.Count);
+        return batch;
+    }
+
+    private void Close(string id)
+    {
+        if (!_open.Remove(id, out var batch))
+        {
+            return;
+        }
+
+        if (lastRowOfBatch is not null)
+        {
+            lastRowOfBatch[id] = Closed;
+        }
+
+        // Checked only now: an analysis may come before the row of the stream it describes.
+        foreach (var (line, step, stream) in batch.UnmatchedAnalyses())
+        {
+            errors.Add(line, ExportColumns.Stream, stream,
+                $"no row of step {step} in batch {batch.Id} has the stream '{stream}'; an analysis describes a stream (waste, product ...) of its own step");
+        }
+
+        if (batch.Rows is { } rows)
+        {
+            _rowsHeld -= rows.Count;
+            if (errors.Count == 0)
+            {
+                var recipe = batch.Recipe ?? throw new InvalidOperationException($"Batch {batch.Id} has rows and no errors but no recipe.");
+                onBatch(new BatchRecord(batch.Id, recipe.Code, recipe.Version, rows, _header!.Warnings));
+                _delivered++;
+            }
+        }
+    }
+
+    private void DropRowsOnceRejected()
+    {
+        if (_rowsDropped || errors.Count == 0)
+        {
+            return;
+        }
+
+        // The file will be quarantined whole: keep checking every line, but stop holding rows.
+        _rowsDropped = true;
+        foreach (var batch in _open.Values)
+        {
+            _rowsHeld -= batch.Rows?.Count ?? 0;
+            batch.DropRows();
+        }
+    }
+
+    private static string BatchKey(CsvReader reader, int batchIndex) =>
+        batchIndex >= 0 && batchIndex < reader.FieldCount ? (reader.GetString(batchIndex) ?? "").Trim() : "";
+
+    private static string Article(string word) => word.Length > 0 && "aeiou".Contains(word[0], StringComparison.Ordinal) ? "an" : "a";
+
+    private static string ContractName(string name) =>
+        ExportColumns.All.FirstOrDefault(c => string.Equals(c, name, StringComparison.OrdinalIgnoreCase)) ?? name;
+
+    private static string Known(IEnumerable<string> codes)
+    {
+        var list = codes.Order(StringComparer.Ordinal).Take(11).ToList();
+        return list.Count == 0 ? "" : $" (known: {string.Join(", ", list.Take(10))}{(list.Count > 10 ? ", ..." : "")})";
+    }
+
+    private static string Shorten(string text) => text.Length <= 200 ? text : string.Concat(text.AsSpan(0, 200), "...");
+}
