@@ -1,0 +1,71 @@
+using BatchReconcile.Chemistry.Metrics;
+using BatchReconcile.Reconciliation.Flags;
+using BatchReconcile.Reconciliation.Outcomes;
+using BatchReconcile.Reconciliation.Settings;
+using BatchReconcile.Reconciliation.Steps;
+using BatchReconcile.Records.Definitions;
+using BatchReconcile.Records.Exports;
+
+namespace BatchReconcile.Reconciliation;
+
+/// <summary>Reconciles a batch record step by step against its recipe (docs/computation.md). Pure: no I/O, no logging.</summary>
+/// <remarks>
+/// The figures support investigations under the site's own procedures; vented-gas masses are stoichiometric
+/// estimates, and reactive steps, vented gases and solvents remain matters for site safety practice, local codes
+/// and qualified review.
+/// </remarks>
+public static class BatchReconciler
+{
+    /// <summary>One <see cref="StepOutcome"/> per recipe step, in recipe order, with its flags.</summary>
+    /// <exception cref="ArgumentException">
+    /// The batch is not of this recipe, has rows of a step the recipe lacks, or the settings name an unknown flag
+    /// code or severity. All are checked before reconciliation (export validation, options validation at start),
+    /// so reaching here with them is a bug.
+    /// </exception>
+    public static BatchOutcome Reconcile(BatchRecord batch, Recipe recipe, ProcessCatalog catalog, ReconciliationSettings settings)
+    {
+        ArgumentNullException.ThrowIfNull(batch);
+        ArgumentNullException.ThrowIfNull(recipe);
+        ArgumentNullException.ThrowIfNull(catalog);
+        ArgumentNullException.ThrowIfNull(settings);
+        if (!string.Equals(batch.RecipeCode, recipe.Code, StringComparison.OrdinalIgnoreCase) || batch.RecipeVersion != recipe.Version)
+        {
+            throw new ArgumentException($"Batch {batch.BatchId} is of recipe {batch.RecipeCode} v{batch.RecipeVersion}, not {recipe.Code} v{recipe.Version}.", nameof(recipe));
+        }
+
+        var stray = batch.Rows.FirstOrDefault(r => recipe.FindStep(r.Step) is null);
+        if (stray is not null)
+        {
+            throw new ArgumentException($"Batch {batch.BatchId}, line {stray.Line}: step '{stray.Step}' is not a step of recipe {recipe.Code} v{recipe.Version}.", nameof(batch));
+        }
+
+        var severities = SeverityTable.FromSettings(settings);
+        var materials = new MaterialLookup(catalog);
+        var steps = recipe.Steps
+            .Select(step => ReconcileStep(batch, step, materials, settings, severities))
+            .ToArray();
+        return new BatchOutcome(batch, steps, LastOutputAt(batch));
+    }
+
+    /// <summary>The latest recorded time among output rows (by instant, not by line order); null when none has one.</summary>
+    private static DateTimeOffset? LastOutputAt(BatchRecord batch) => batch.Rows
+        .Where(r => r.Entry is EntryKind.Product or EntryKind.Waste or EntryKind.Recovered or EntryKind.Sample)
+        .Select(r => r.RecordedAt)
+        .Where(t => t.HasValue)
+        .Max();
+
+    private static StepOutcome ReconcileStep(
+        BatchRecord batch, RecipeStep step, MaterialLookup materials, ReconciliationSettings settings, SeverityTable severities)
+    {
+        var rows = batch.RowsOfStep(step.Code).ToArray();
+
+        // A step with no rows still gets its figures from empty inputs (zeros, nulls, the atom economy), so a
+        // missing step looks like every other step to storage and reports; only its flag differs.
+        var input = StepInputBuilder.Build(step, rows, materials, settings);
+        var result = StepMetrics.Compute(input);
+        var flags = rows.Length == 0
+            ? FlagRules.StepMissing(step, batch.BatchId, severities)
+            : FlagRules.Evaluate(step, result, materials, severities, step.ProductInWasteMaxPct ?? settings.ProductInWasteMaxPct);
+        return StepOutcomeMapper.Map(step, rows.Length > 0, result, flags);
+    }
+}
