@@ -1,0 +1,210 @@
+using System.Globalization;
+using BatchReconcile.Records.Definitions;
+using BatchReconcile.Storage.Ingest;
+using BatchReconcile.Storage.Sql;
+using Microsoft.Data.Sqlite;
+
+namespace BatchReconcile.Storage;
+
+public sealed partial class BatchStore
+{
+    /// <summary>
+    /// Stores a group of files in ONE transaction (one sync to disk for the whole group), each file
+    /// all-or-nothing inside it. Files are taken in list order, so a later file sees the batches of
+    /// an earlier one (a re-export in the same group becomes a revision).
+    /// </summary>
+    /// <returns>One result per file, in order. A file that failed has a null outcome and its
+    /// <see cref="FileCommitResult.Failure"/>; nothing of it is stored, the other files are.</returns>
+    /// <remarks>
+    /// When this returns, every committed file's hash is known (<see cref="IsKnown"/>) and on disk
+    /// to the degree <see cref="StoreSettings.Synchronous"/> promises; only then may the host move
+    /// the files. When it throws, nothing of the group is stored.
+    /// </remarks>
+    /// <exception cref="StoreException">SQLite abandoned the whole transaction (disk full, I/O error); nothing was stored.</exception>
+    public IReadOnlyList<FileCommitResult> Commit(IReadOnlyList<FileIngest> files)
+    {
+        ArgumentNullException.ThrowIfNull(files);
+        lock (_gate)
+        {
+            ThrowIfDisposed();
+            var now = _time.GetUtcNow();
+            var results = new List<FileCommitResult>(files.Count);
+            using var transaction = _connection.BeginTransaction(deferred: false);
+            using (var statements = new CommitStatements(_connection, transaction))
+            {
+                for (var i = 0; i < files.Count; i++)
+                {
+                    var file = files[i];
+                    var savepoint = "file" + i.ToString(CultureInfo.InvariantCulture);
+                    transaction.Save(savepoint);
+                    try
+                    {
+                        results.Add(CommitFile(statements, file, now));
+                        transaction.Release(savepoint);
+                    }
+                    catch (Exception failure) when (failure is SqliteException or InvalidDataException or NotSupportedException or ArgumentException)
+                    {
+                        RollBackFile(transaction, savepoint, file, failure);
+                        results.Add(new FileCommitResult(file.FileName, file.Sha256, null, null, [], file.Errors.Count, failure));
+                    }
+                }
+            }
+
+            transaction.Commit();
+            return results;
+        }
+    }
+
+    private void RollBackFile(SqliteTransaction transaction, string savepoint, FileIngest file, Exception failure)
+    {
+        try
+        {
+            transaction.Rollback(savepoint);
+            transaction.Release(savepoint);
+        }
+        catch (SqliteException lost)
+        {
+            // Some errors (disk full, I/O) make SQLite roll back the whole transaction; then the
+            // earlier files of the group are gone too and only the caller can retry them.
+            throw new StoreException(
+                $"Storing {file.FileName} failed ({failure.Message}) and the database abandoned the whole group; nothing of it was stored.",
+                new AggregateException(failure, lost));
+        }
+    }
+
+    private static FileCommitResult CommitFile(CommitStatements sql, FileIngest file, DateTimeOffset now)
+    {
+        var known = ReadKnownFile(sql.FindFile.Set("$sha256", file.Sha256));
+        if (known is not null)
+        {
+            var id = LogIngest(sql, file, IngestOutcome.Duplicate, now);
+            Audit(sql, now, "ingest.duplicate", file, new { file = file.FileName, sha256 = file.Sha256, firstIngest = known.IngestId, firstOutcome = known.Outcome.ToText() });
+            return new FileCommitResult(file.FileName, file.Sha256, IngestOutcome.Duplicate, id, [], file.Errors.Count, null);
+        }
+
+        if (file.IsQuarantined)
+        {
+            var id = LogIngest(sql, file, IngestOutcome.Quarantined, now);
+            Audit(sql, now, "ingest.quarantined", file, new { file = file.FileName, sha256 = file.Sha256, errors = file.Errors.Count });
+            return new FileCommitResult(file.FileName, file.Sha256, IngestOutcome.Quarantined, id, [], file.Errors.Count, null);
+        }
+
+        var plans = file.Batches.Select(b => (Batch: b, Planned: PlanBatch(sql.FindBatch, b.Outcome.Batch))).ToList();
+        var outcome = plans.Any(p => p.Planned.Plan.Disposition == BatchDisposition.Revision) ? IngestOutcome.Revision
+            : plans.Any(p => p.Planned.Plan.Disposition == BatchDisposition.New) ? IngestOutcome.Stored
+            : plans.Count > 0 ? IngestOutcome.Duplicate
+            : IngestOutcome.Stored;
+
+        var ingestId = LogIngest(sql, file, outcome, now);
+        var batchResults = new List<BatchCommitResult>(plans.Count);
+        foreach (var (batch, (plan, batchRef, currentRef)) in plans)
+        {
+            batchResults.Add(plan.Disposition switch
+            {
+                BatchDisposition.Unchanged => new BatchCommitResult(plan.BatchId, plan.Disposition, plan.Revision, []),
+                _ => StoreRevision(sql, file, ingestId, batch, plan, batchRef, currentRef, now),
+            });
+        }
+
+        Audit(sql, now, "ingest." + outcome.ToText(), file, new
+        {
+            file = file.FileName,
+            sha256 = file.Sha256,
+            batches = batchResults.Select(b => new { batch = b.BatchId, disposition = b.Disposition.ToString().ToLowerInvariant(), revision = b.Revision }),
+        });
+        return new FileCommitResult(file.FileName, file.Sha256, outcome, ingestId, batchResults, 0, null);
+    }
+
+    private static BatchCommitResult StoreRevision(
+        CommitStatements sql, FileIngest file, long ingestId, BatchIngest batch, BatchPlan plan, long? batchRef, long? previousRef, DateTimeOffset now)
+    {
+        var record = batch.Outcome.Batch;
+        var at = DbText.Time(now);
+        var day = DbText.Day(batch.ProductionDay);
+        var batchKey = batchRef ?? sql.InsertBatch.Set("$batch", record.BatchId).Set("$at", at).ScalarInt64();
+
+        // The previous revision stops being current before the new one is written: the unique
+        // index on current revisions is checked row by row, not at commit.
+        if (previousRef is { } previous)
+        {
+            sql.Supersede.Set("$at", at).Set("$old", previous).Execute();
+        }
+
+        var revisionId = sql.InsertRevision
+            .Set("$batch", batchKey).Set("$revision", plan.Revision).Set("$ingest", ingestId)
+            .Set("$recipe", record.RecipeCode).Set("$recipeVersion", record.RecipeVersion)
+            .Set("$content", plan.ContentSha256).Set("$day", day)
+            .Set("$lastOutput", DbText.TimeOrNull(batch.Outcome.LastOutputAt)).Set("$at", at)
+            .ScalarInt64();
+
+        if (previousRef is { } old)
+        {
+            sql.LinkSuperseded.Set("$new", revisionId).Set("$old", old).Execute();
+            sql.RetireFlags.Set("$old", old).Execute();
+            sql.RetireSteps.Set("$old", old).Execute();
+            sql.InsertAudit.Set("$at", at).Set("$kind", "batch.revision").Set("$subject", "batch:" + record.BatchId)
+                .Set("$detail", StoreJson.Detail(new
+                {
+                    batch = record.BatchId,
+                    supersededRevision = plan.Revision - 1,
+                    revision = plan.Revision,
+                    file = file.FileName,
+                    sha256 = file.Sha256,
+                    contentSha256 = plan.ContentSha256,
+                }))
+                .Execute();
+        }
+
+        foreach (var row in record.Rows)
+        {
+            sql.InsertRawRow.Set("$revision", revisionId).Set("$line", row.Line).Set("$fields", StoreJson.RawFields(row.Raw)).Execute();
+        }
+
+        var flagIds = new List<long>();
+        var order = 0;
+        foreach (var step in batch.Outcome.Steps)
+        {
+            sql.InsertStep
+                .Set("$revision", revisionId).Set("$step", step.Step).Set("$order", ++order).Set("$hasRows", step.HasRows ? 1 : 0)
+                .Set("$limiting", step.LimitingReactant).Set("$extent", step.ExtentMaxMol).Set("$theoretical", step.TheoreticalKg)
+                .Set("$actual", step.ActualKg).Set("$yield", step.YieldPct).Set("$ae", step.AtomEconomyPct)
+                .Set("$sf", step.StoichiometricFactor).Set("$rme", step.RmePct).Set("$mrp", step.Mrp)
+                .Set("$overallRme", step.OverallRmePct).Set("$pmi", step.Pmi).Set("$cef", step.CompleteEFactor)
+                .Set("$sef", step.SimpleEFactor).Set("$massIn", step.MassInKg).Set("$reactantMass", step.ReactantMassKg)
+                .Set("$stoichMass", step.StoichiometricMassKg).Set("$recovered", step.RecoveredKg).Set("$massOut", step.MassOutKg)
+                .Set("$vented", step.VentedKg).Set("$ventedMax", step.VentedMaxKg).Set("$gap", step.GapKg)
+                .Set("$closure", step.ClosurePct).Set("$uncertainty", step.CombinedUncertaintyKg)
+                .Set("$equivalents", StoreJson.Equivalents(step.Equivalents)).Set("$ladder", StoreJson.Ladder(step.Ladder))
+                .Set("$recipe", record.RecipeCode).Set("$day", day)
+                .Execute();
+        }
+
+        // Flags after all steps: a flag names its step, and the foreign key refuses a flag whose
+        // step was not stored with the revision.
+        foreach (var flag in batch.Outcome.Flags)
+        {
+            flagIds.Add(sql.InsertFlag
+                .Set("$revision", revisionId).Set("$step", flag.Step).Set("$code", flag.Code.ToText())
+                .Set("$severity", flag.Severity.ToText()).Set("$measured", flag.Measured).Set("$limit", flag.Limit)
+                .Set("$unit", flag.Unit).Set("$message", flag.Message).Set("$subject", flag.Subject)
+                .Set("$at", at).Set("$day", day)
+                .ScalarInt64());
+        }
+
+        return new BatchCommitResult(plan.BatchId, plan.Disposition, plan.Revision, flagIds);
+    }
+
+    private static long LogIngest(CommitStatements sql, FileIngest file, IngestOutcome outcome, DateTimeOffset now) =>
+        sql.InsertIngest
+            .Set("$file", file.FileName).Set("$sha256", file.Sha256).Set("$outcome", outcome.ToText())
+            .Set("$errors", file.Errors.Count).Set("$batches", file.Batches.Count)
+            .Set("$received", DbText.Time(file.ReceivedAt)).Set("$processed", DbText.Time(now))
+            .Set("$report", file.Report)
+            .ScalarInt64();
+
+    private static void Audit(CommitStatements sql, DateTimeOffset now, string kind, FileIngest file, object detail) =>
+        sql.InsertAudit
+            .Set("$at", DbText.Time(now)).Set("$kind", kind).Set("$subject", "file:" + file.Sha256)
+            .Set("$detail", StoreJson.Detail(detail))
+            .Execute();
+}

@@ -1,0 +1,164 @@
+namespace BatchReconcile.Storage.Schema;
+
+/// <summary>
+/// The schema's history, oldest first. A released migration is never edited: a change to the
+/// schema is a new entry at the end, so that a database of any earlier version can be brought
+/// up to date in order.
+/// </summary>
+public static class Migrations
+{
+    public static IReadOnlyList<Migration> All { get; } =
+    [
+        new(1, "core tables: ingest log, batches, revisions, raw rows, step results, flags", V1CoreTables),
+        new(2, "query support: production day and recipe copied onto flags and step results, indexes", V2QuerySupport),
+        new(3, "append-only audit trail", V3AuditTrail),
+    ];
+
+    public static int Latest => All[^1].Version;
+
+    // Times are TEXT in UTC ISO 8601 with a 'Z' (they sort as they compare); production days are
+    // TEXT 'YYYY-MM-DD' in the plant's calendar; SHA-256 digests are lower-case hex.
+    private const string V1CoreTables = """
+        CREATE TABLE ingest_log (
+            id           INTEGER PRIMARY KEY,
+            file_name    TEXT    NOT NULL,
+            sha256       TEXT    NOT NULL CHECK (length(sha256) = 64),
+            outcome      TEXT    NOT NULL CHECK (outcome IN ('stored', 'revision', 'duplicate', 'quarantined')),
+            error_count  INTEGER NOT NULL DEFAULT 0 CHECK (error_count >= 0),
+            batch_count  INTEGER NOT NULL DEFAULT 0 CHECK (batch_count >= 0),
+            received_at  TEXT    NOT NULL,
+            processed_at TEXT    NOT NULL,
+            report       TEXT
+        );
+        -- A file's content is taken once (stored, revision or quarantined); every later sighting
+        -- is logged as a duplicate.
+        CREATE UNIQUE INDEX ux_ingest_log_first_sighting ON ingest_log (sha256) WHERE outcome <> 'duplicate';
+        CREATE INDEX ix_ingest_log_sha256 ON ingest_log (sha256);
+
+        CREATE TABLE batch (
+            id            INTEGER PRIMARY KEY,
+            batch_id      TEXT NOT NULL UNIQUE,
+            first_seen_at TEXT NOT NULL
+        );
+
+        CREATE TABLE batch_revision (
+            id             INTEGER PRIMARY KEY,
+            batch_ref      INTEGER NOT NULL REFERENCES batch (id),
+            revision       INTEGER NOT NULL CHECK (revision >= 1),
+            ingest_ref     INTEGER NOT NULL REFERENCES ingest_log (id),
+            recipe         TEXT    NOT NULL,
+            recipe_version INTEGER NOT NULL,
+            content_sha256 TEXT    NOT NULL CHECK (length(content_sha256) = 64),
+            production_day TEXT    NOT NULL CHECK (production_day GLOB '[0-9][0-9][0-9][0-9]-[0-9][0-9]-[0-9][0-9]'),
+            last_output_at TEXT,
+            stored_at      TEXT    NOT NULL,
+            superseded_by  INTEGER REFERENCES batch_revision (id),
+            superseded_at  TEXT,
+            UNIQUE (batch_ref, revision),
+            CHECK (superseded_by IS NULL OR superseded_at IS NOT NULL)
+        );
+        -- At most one current (not superseded) revision per batch. superseded_at is set first and
+        -- superseded_by once the new revision has its id.
+        CREATE UNIQUE INDEX ux_batch_revision_current ON batch_revision (batch_ref) WHERE superseded_at IS NULL;
+        CREATE INDEX ix_batch_revision_ingest ON batch_revision (ingest_ref);
+
+        CREATE TABLE raw_row (
+            revision_ref INTEGER NOT NULL REFERENCES batch_revision (id),
+            line         INTEGER NOT NULL CHECK (line >= 1),
+            fields       TEXT    NOT NULL,
+            PRIMARY KEY (revision_ref, line)
+        ) WITHOUT ROWID;
+
+        CREATE TABLE step_result (
+            revision_ref            INTEGER NOT NULL REFERENCES batch_revision (id),
+            step                    TEXT    NOT NULL,
+            step_order              INTEGER NOT NULL,
+            has_rows                INTEGER NOT NULL CHECK (has_rows IN (0, 1)),
+            limiting_reactant       TEXT,
+            extent_max_mol          REAL,
+            theoretical_kg          REAL,
+            actual_kg               REAL    NOT NULL,
+            yield_pct               REAL,
+            atom_economy_pct        REAL    NOT NULL,
+            stoichiometric_factor   REAL,
+            rme_pct                 REAL,
+            mrp                     REAL,
+            overall_rme_pct         REAL,
+            pmi                     REAL,
+            complete_e_factor       REAL,
+            simple_e_factor         REAL,
+            mass_in_kg              REAL    NOT NULL,
+            reactant_mass_kg        REAL    NOT NULL,
+            stoichiometric_mass_kg  REAL,
+            recovered_kg            REAL    NOT NULL,
+            mass_out_kg             REAL    NOT NULL,
+            vented_kg               REAL    NOT NULL,
+            vented_max_kg           REAL    NOT NULL,
+            gap_kg                  REAL    NOT NULL,
+            closure_pct             REAL,
+            combined_uncertainty_kg REAL    NOT NULL,
+            equivalents             TEXT    NOT NULL,
+            ladder                  TEXT    NOT NULL,
+            PRIMARY KEY (revision_ref, step)
+        );
+
+        -- Flag ids are shown to people (flags review 17); AUTOINCREMENT keeps them from ever being reused.
+        CREATE TABLE flag (
+            id           INTEGER PRIMARY KEY AUTOINCREMENT,
+            revision_ref INTEGER NOT NULL,
+            step         TEXT    NOT NULL,
+            code         TEXT    NOT NULL,
+            severity     TEXT    NOT NULL CHECK (severity IN ('critical', 'major', 'minor')),
+            measured     REAL,
+            limit_value  REAL,
+            unit         TEXT    NOT NULL,
+            message      TEXT    NOT NULL,
+            subject      TEXT,
+            state        TEXT    NOT NULL DEFAULT 'open',
+            created_at   TEXT    NOT NULL,
+            FOREIGN KEY (revision_ref, step) REFERENCES step_result (revision_ref, step)
+        );
+        CREATE INDEX ix_flag_revision ON flag (revision_ref, step);
+        """;
+
+    // The two questions asked every day - "flags of production day D" and "history of step S of
+    // recipe R" - are answered from one index each, without a join to the revision table.
+    private const string V2QuerySupport = """
+        ALTER TABLE flag ADD COLUMN production_day TEXT NOT NULL DEFAULT '';
+        ALTER TABLE flag ADD COLUMN is_current INTEGER NOT NULL DEFAULT 1 CHECK (is_current IN (0, 1));
+        ALTER TABLE step_result ADD COLUMN recipe TEXT NOT NULL DEFAULT '';
+        ALTER TABLE step_result ADD COLUMN production_day TEXT NOT NULL DEFAULT '';
+        ALTER TABLE step_result ADD COLUMN is_current INTEGER NOT NULL DEFAULT 1 CHECK (is_current IN (0, 1));
+
+        UPDATE flag SET
+            production_day = (SELECT r.production_day FROM batch_revision r WHERE r.id = flag.revision_ref),
+            is_current     = (SELECT r.superseded_at IS NULL FROM batch_revision r WHERE r.id = flag.revision_ref);
+        UPDATE step_result SET
+            recipe         = (SELECT r.recipe FROM batch_revision r WHERE r.id = step_result.revision_ref),
+            production_day = (SELECT r.production_day FROM batch_revision r WHERE r.id = step_result.revision_ref),
+            is_current     = (SELECT r.superseded_at IS NULL FROM batch_revision r WHERE r.id = step_result.revision_ref);
+
+        CREATE INDEX ix_flag_day ON flag (production_day, is_current, severity);
+        CREATE INDEX ix_step_result_history ON step_result (recipe, step, is_current, production_day);
+        CREATE INDEX ix_batch_revision_day ON batch_revision (production_day);
+        """;
+
+    private const string V3AuditTrail = """
+        CREATE TABLE audit_event (
+            id      INTEGER PRIMARY KEY AUTOINCREMENT,
+            at      TEXT NOT NULL,
+            kind    TEXT NOT NULL,
+            subject TEXT NOT NULL,
+            detail  TEXT NOT NULL
+        );
+        CREATE INDEX ix_audit_event_subject ON audit_event (subject, id);
+        CREATE TRIGGER audit_event_no_update BEFORE UPDATE ON audit_event
+        BEGIN
+            SELECT RAISE(ABORT, 'audit_event is append-only');
+        END;
+        CREATE TRIGGER audit_event_no_delete BEFORE DELETE ON audit_event
+        BEGIN
+            SELECT RAISE(ABORT, 'audit_event is append-only');
+        END;
+        """;
+}

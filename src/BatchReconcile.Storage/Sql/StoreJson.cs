@@ -1,0 +1,36 @@
+using System.Text.Json;
+using BatchReconcile.Reconciliation.Outcomes;
+
+namespace BatchReconcile.Storage.Sql;
+
+/// <summary>The JSON held in text columns: equivalents, loss ladders, raw rows and audit details.</summary>
+internal static class StoreJson
+{
+    private static readonly JsonSerializerOptions Options = new()
+    {
+        PropertyNamingPolicy = JsonNamingPolicy.CamelCase,
+        WriteIndented = false,
+    };
+
+    public static string Equivalents(IReadOnlyDictionary<string, double> equivalents) =>
+        JsonSerializer.Serialize(equivalents.OrderBy(e => e.Key, StringComparer.Ordinal).ToDictionary(e => e.Key, e => e.Value), Options);
+
+    public static IReadOnlyDictionary<string, double> ParseEquivalents(string json) =>
+        JsonSerializer.Deserialize<Dictionary<string, double>>(json, Options) ?? [];
+
+    public static string Ladder(IReadOnlyList<LadderRung> ladder) => JsonSerializer.Serialize(ladder, Options);
+
+    public static IReadOnlyList<LadderRung> ParseLadder(string json) =>
+        JsonSerializer.Deserialize<List<LadderRung>>(json, Options) ?? [];
+
+    /// <summary>Columns in header order as [name, value] pairs (an object would lose the order).</summary>
+    public static string RawFields(IReadOnlyList<KeyValuePair<string, string>> fields) =>
+        JsonSerializer.Serialize(fields.Select(f => new[] { f.Key, f.Value }), Options);
+
+    public static IReadOnlyList<KeyValuePair<string, string>> ParseRawFields(string json) =>
+        (JsonSerializer.Deserialize<List<string[]>>(json, Options) ?? [])
+            .Select(p => new KeyValuePair<string, string>(p[0], p[1]))
+            .ToList();
+
+    public static string Detail(object detail) => JsonSerializer.Serialize(detail, Options);
+}

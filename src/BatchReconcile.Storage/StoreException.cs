@@ -1,0 +1,22 @@
+namespace BatchReconcile.Storage;
+
+/// <summary>
+/// The database cannot be used by this program: it is newer than the program, or the file system
+/// refuses what the store needs. The message says what to do; the host stops with it.
+/// </summary>
+public sealed class StoreException : Exception
+{
+    public StoreException(string message)
+        : base(message)
+    {
+    }
+
+    public StoreException(string message, Exception innerException)
+        : base(message, innerException)
+    {
+    }
+
+    public StoreException()
+    {
+    }
+}

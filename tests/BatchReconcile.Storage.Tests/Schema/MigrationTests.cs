@@ -1,0 +1,145 @@
+using BatchReconcile.Storage.Schema;
+using BatchReconcile.Storage.Tests.Support;
+
+namespace BatchReconcile.Storage.Tests.Schema;
+
+public sealed class MigrationTests
+{
+    private static readonly string[] Tables = ["ingest_log", "batch", "batch_revision", "raw_row", "step_result", "flag", "audit_event"];
+
+    public static TheoryData<int> EarlierVersions()
+    {
+        var data = new TheoryData<int>();
+        foreach (var migration in Migrations.All.Where(m => m.Version < Migrations.Latest))
+        {
+            data.Add(migration.Version);
+        }
+
+        return data;
+    }
+
+    [Fact]
+    public void Migrations_are_numbered_from_one_without_gaps()
+    {
+        Assert.Equal(Enumerable.Range(1, Migrations.All.Count), Migrations.All.Select(m => m.Version));
+        Assert.True(Migrations.Latest >= 2, "at least two migrations, so that upgrading an earlier version is exercised");
+    }
+
+    [Fact]
+    public void An_empty_database_is_migrated_to_the_latest_version()
+    {
+        using var db = new TempDatabase();
+        using (var store = db.Open())
+        {
+            Assert.Equal(Migrations.Latest, SchemaMigrator.CurrentVersion(store.Connection));
+            foreach (var table in Tables)
+            {
+                Assert.Equal("1", Db.Scalar(store.Connection, $"SELECT count(*) FROM sqlite_master WHERE type = 'table' AND name = '{table}'"));
+            }
+        }
+
+        // Opening again applies nothing.
+        using var connection = db.OpenRaw();
+        Assert.Empty(SchemaMigrator.MigrateToLatest(connection));
+    }
+
+    [Theory]
+    [MemberData(nameof(EarlierVersions))]
+    public void A_database_at_an_earlier_version_is_migrated_with_its_data_kept(int version)
+    {
+        using var db = new TempDatabase();
+        using (var connection = db.OpenRaw())
+        {
+            Assert.Equal(Enumerable.Range(1, version), SchemaMigrator.MigrateTo(connection, version));
+            Seed(connection, version);
+        }
+
+        using var store = db.Open();
+        Assert.Equal(Migrations.Latest, SchemaMigrator.CurrentVersion(store.Connection));
+
+        var batch = store.GetLatestBatch("OLD-001");
+        Assert.NotNull(batch);
+        Assert.Equal(2, batch.Revision);
+        Assert.Equal(2, batch.RevisionCount);
+        Assert.Equal(Build.Day1, batch.ProductionDay);
+        var step = Assert.Single(batch.Steps);
+        Assert.Equal(91.25, step.Outcome.YieldPct);
+        var flag = Assert.Single(step.Flags);
+        Assert.Equal(7, flag.Id);
+        Assert.True(flag.IsCurrent);
+
+        // The columns added by later migrations were filled from the old rows: the day and
+        // step-history queries find the seeded data, and the superseded revision stays out.
+        var dayFlags = store.ListFlags(Build.Day1);
+        Assert.Equal([7L], dayFlags.Select(f => f.Id));
+        Assert.Equal([6L, 7L], store.ListFlags(Build.Day1, includeSuperseded: true).Select(f => f.Id));
+        var history = Assert.Single(store.StepHistory(Build.Recipe, "S1", 10));
+        Assert.Equal(("OLD-001", 2, 91.25), (history.BatchId, history.Revision, history.YieldPct));
+        Assert.True(store.IsKnown(Build.Sha("old-2.csv")));
+
+        // And the migrated database takes new files.
+        var result = Assert.Single(store.Commit([Build.File("new.csv", Build.Ingest(Build.Batch("NEW-001"), Build.Day2, Build.Flag("S2")))]));
+        Assert.Equal(BatchReconcile.Storage.Ingest.IngestOutcome.Stored, result.Outcome);
+        Assert.True(Assert.Single(result.Batches).FlagIds.Single() > 7, "flag ids continue after the old ones");
+    }
+
+    [Fact]
+    public void A_database_newer_than_the_program_is_refused_and_left_alone()
+    {
+        using var db = new TempDatabase();
+        var newer = Migrations.Latest + 1;
+        using (var connection = db.OpenRaw())
+        {
+            Db.Execute(connection, $"PRAGMA user_version = {newer}");
+        }
+
+        var refused = Assert.Throws<StoreException>(() => db.Open());
+        Assert.Contains($"schema version {newer}", refused.Message, StringComparison.Ordinal);
+        Assert.Contains($"up to {Migrations.Latest}", refused.Message, StringComparison.Ordinal);
+
+        using var check = db.OpenRaw();
+        Assert.Equal(newer, SchemaMigrator.CurrentVersion(check));
+        Assert.Equal("0", Db.Scalar(check, "SELECT count(*) FROM sqlite_master WHERE type = 'table'"));
+    }
+
+    /// <summary>
+    /// Rows as the program of that version wrote them: one batch with a superseded revision 1 and
+    /// a current revision 2, one step result and one flag each.
+    /// </summary>
+    private static void Seed(Microsoft.Data.Sqlite.SqliteConnection connection, int version)
+    {
+        var sha1 = Build.Sha("old-1.csv");
+        var sha2 = Build.Sha("old-2.csv");
+        var content = new string('a', 64);
+        var day = "2026-11-23";
+        var emptyObject = "{}";
+        Db.Execute(connection, $"""
+            INSERT INTO ingest_log (id, file_name, sha256, outcome, error_count, batch_count, received_at, processed_at)
+            VALUES (1, 'old-1.csv', '{sha1}', 'stored', 0, 1, '2026-11-23T20:00:00.0000000Z', '2026-11-23T20:00:01.0000000Z'),
+                   (2, 'old-2.csv', '{sha2}', 'revision', 0, 1, '2026-11-24T07:00:00.0000000Z', '2026-11-24T07:00:01.0000000Z');
+            INSERT INTO batch (id, batch_id, first_seen_at) VALUES (1, 'OLD-001', '2026-11-23T20:00:01.0000000Z');
+            INSERT INTO batch_revision (id, batch_ref, revision, ingest_ref, recipe, recipe_version, content_sha256, production_day, stored_at, superseded_at)
+            VALUES (1, 1, 1, 1, '{Build.Recipe}', 1, '{content}', '{day}', '2026-11-23T20:00:01.0000000Z', '2026-11-24T07:00:01.0000000Z');
+            INSERT INTO batch_revision (id, batch_ref, revision, ingest_ref, recipe, recipe_version, content_sha256, production_day, stored_at)
+            VALUES (2, 1, 2, 2, '{Build.Recipe}', 1, '{content.Replace('a', 'b')}', '{day}', '2026-11-24T07:00:01.0000000Z');
+            UPDATE batch_revision SET superseded_by = 2 WHERE id = 1;
+            INSERT INTO raw_row (revision_ref, line, fields) VALUES (2, 2, '[["batch","OLD-001"]]');
+            INSERT INTO step_result (revision_ref, step, step_order, has_rows, actual_kg, yield_pct, atom_economy_pct, mass_in_kg,
+                reactant_mass_kg, recovered_kg, mass_out_kg, vented_kg, vented_max_kg, gap_kg, combined_uncertainty_kg, equivalents, ladder)
+            VALUES (1, 'S1', 1, 1, 80.0, 84.5, 90.0, 505.0, 100.0, 0.0, 480.0, 0.0, 0.0, 25.0, 0.7, '{emptyObject}', '[]'),
+                   (2, 'S1', 1, 1, 86.0, 91.25, 90.0, 505.0, 100.0, 0.0, 500.0, 0.0, 0.0, 5.0, 0.7, '{emptyObject}', '[]');
+            INSERT INTO flag (id, revision_ref, step, code, severity, measured, limit_value, unit, message, created_at)
+            VALUES (6, 1, 'S1', 'yield-low', 'major', 84.5, 88.0, '%', 'yield below range', '2026-11-23T20:00:01.0000000Z'),
+                   (7, 2, 'S1', 'balance-gap', 'major', 5.0, 2.0, 'kg', 'mass unaccounted', '2026-11-24T07:00:01.0000000Z');
+            """);
+
+        if (version >= 2)
+        {
+            // The version-2 program filled the query columns itself when it wrote a row.
+            Db.Execute(connection, $"""
+                UPDATE flag SET production_day = '{day}', is_current = (revision_ref = 2);
+                UPDATE step_result SET recipe = '{Build.Recipe}', production_day = '{day}', is_current = (revision_ref = 2);
+                """);
+        }
+    }
+}
