@@ -1,0 +1,49 @@
+using System.CommandLine;
+using BatchReconcile.Hosting;
+using BatchReconcile.Pipeline;
+using BatchReconcile.Storage;
+using Microsoft.Extensions.Hosting;
+using Microsoft.Extensions.Options;
+
+namespace BatchReconcile.Cli;
+
+/// <summary>
+/// Runs a command inside the application host. Settings, process definitions and the database are
+/// checked first; anything wrong there is bad input (exit 2) with one line naming the file and setting.
+/// </summary>
+public static class HostedCommand
+{
+    public static int Run(ParseResult parse, GlobalOptions globals, bool service, Func<IHost, int> body)
+    {
+        var context = AppContextOptions.From(parse.GetValue(globals.Config), parse.GetValue(globals.Data));
+        using var host = Start(context, service);
+        return body(host);
+    }
+
+    public static IHost Start(AppContextOptions context, bool service)
+    {
+        IHost? host = null;
+        try
+        {
+            host = AppHost.Build(context, service);
+            AppHost.Validate(host.Services);
+            return host;
+        }
+        catch (Exception e) when (Describe(e, context) is { } reason)
+        {
+            host?.Dispose();
+            throw new UsageException(reason);
+        }
+    }
+
+    private static string? Describe(Exception e, AppContextOptions context) => e switch
+    {
+        OptionsValidationException o => $"settings in {Path.Combine(context.ConfigDirectory, "appsettings.json")} refused: {string.Join("; ", o.Failures)}",
+        DefinitionsException d => d.Message,
+        ConfigurationException c => c.Message,
+        StoreException s => $"database: {s.Message}",
+        InvalidDataException i => $"settings in {Path.Combine(context.ConfigDirectory, "appsettings.json")}: {i.Message}",
+        InvalidOperationException { InnerException: FormatException f } => $"settings in {Path.Combine(context.ConfigDirectory, "appsettings.json")}: {f.Message}",
+        _ => null,
+    };
+}
