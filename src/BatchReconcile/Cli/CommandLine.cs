@@ -14,6 +14,11 @@ public static class CommandLine
         var root = new RootCommand("BatchReconcile: reconciles batch records step by step against the balanced equation.");
         globals.AddTo(root);
         root.Subcommands.Add(ChemCommands.Create(stdout));
+        root.Subcommands.Add(RunCommand.Create(globals));
+        root.Subcommands.Add(IngestCommand.Create(globals, stdout, stderr));
+        root.Subcommands.Add(CheckCommand.Create(globals, stdout, stderr));
+        root.Subcommands.Add(BatchesCommand.Create(globals, stdout));
+        root.Subcommands.Add(DemoCommand.Create(globals, stdout));
 
         var parsed = root.Parse(args);
         if (parsed.Errors.Count > 0)

@@ -20,12 +20,12 @@ public static class HostedCommand
         return body(host);
     }
 
-    public static IHost Start(AppContextOptions context, bool service)
+    public static IHost Start(AppContextOptions context, bool service, bool quietConsole = false)
     {
         IHost? host = null;
         try
         {
-            host = AppHost.Build(context, service);
+            host = AppHost.Build(context, service, quietConsole);
             AppHost.Validate(host.Services);
             return host;
         }

@@ -10,5 +10,5 @@ namespace BatchReconcile.Cli;
 public static class Rounding
 {
     public static double Hundredths(double value) =>
-        double.IsFinite(value) ? (double)Math.Round((decimal)value, 2, MidpointRounding.ToEven) : value;
+        double.IsFinite(value) && Math.Abs(value) < 1e15 ? (double)Math.Round((decimal)value, 2, MidpointRounding.ToEven) : value;
 }

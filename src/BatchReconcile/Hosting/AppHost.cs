@@ -21,7 +21,8 @@ public static class AppHost
 {
     /// <param name="service">True for <c>run</c>: the inbox service is added and console logging is at the configured level.
     /// One-shot commands log warnings and above to the console (stderr) and everything to the log file.</param>
-    public static IHost Build(AppContextOptions context, bool service)
+    /// <param name="quietConsole">Keep the console to errors (the demo prints its own summary).</param>
+    public static IHost Build(AppContextOptions context, bool service, bool quietConsole = false)
     {
         var settingsFile = Path.Combine(context.ConfigDirectory, "appsettings.json");
         if (!File.Exists(settingsFile))
@@ -39,7 +40,7 @@ public static class AppHost
 
         var site = builder.Configuration.GetSection(SiteOptions.Section).Get<SiteOptions>() ?? new SiteOptions();
         var folders = DataFolders.From(site, context.DataOverride);
-        builder.Configuration.AddInMemoryCollection(LoggingOverrides(builder.Configuration, folders, service));
+        builder.Configuration.AddInMemoryCollection(LoggingOverrides(builder.Configuration, folders, service ? null : quietConsole ? "Error" : "Warning"));
 
         builder.Services.AddSingleton(context);
         builder.Services.AddSingleton(TimeProvider.System);
@@ -104,7 +105,7 @@ public static class AppHost
     /// The log file goes under the data root's logs/ folder (a relative path in the Serilog settings is
     /// taken from there), and one-shot commands keep the console to warnings.
     /// </summary>
-    private static Dictionary<string, string?> LoggingOverrides(IConfiguration configuration, DataFolders folders, bool service)
+    private static Dictionary<string, string?> LoggingOverrides(IConfiguration configuration, DataFolders folders, string? consoleMinimum)
     {
         var overrides = new Dictionary<string, string?>();
         foreach (var sink in configuration.GetSection("Serilog:WriteTo").GetChildren())
@@ -115,9 +116,9 @@ public static class AppHost
                 overrides[$"{sink.Path}:Args:path"] = Path.Combine(folders.Root, path);
             }
 
-            if (!service && string.Equals(name, "Console", StringComparison.OrdinalIgnoreCase))
+            if (consoleMinimum is not null && string.Equals(name, "Console", StringComparison.OrdinalIgnoreCase))
             {
-                overrides[$"{sink.Path}:Args:restrictedToMinimumLevel"] = "Warning";
+                overrides[$"{sink.Path}:Args:restrictedToMinimumLevel"] = consoleMinimum;
             }
         }
 

@@ -1,0 +1,95 @@
+using BatchReconcile.Reconciliation.Flags;
+using BatchReconcile.Reconciliation.Outcomes;
+using BatchReconcile.Records.Definitions;
+using BatchReconcile.Storage.Queries;
+
+namespace BatchReconcile.Cli;
+
+/// <summary>The JSON shapes of <c>batches show</c> and <c>check</c> (docs/cli.md).</summary>
+public static class BatchJson
+{
+    public sealed record FlagJson(long? Id, string Code, string Severity, string Message, double? Measured, double? Limit, string Unit, string? Subject);
+
+    public sealed record StepJson(
+        string Step,
+        string? LimitingReactant,
+        double? TheoreticalKg,
+        double ActualKg,
+        double? YieldPct,
+        double AtomEconomyPct,
+        double? StoichiometricFactor,
+        double? RmePct,
+        double? Pmi,
+        double? CompleteEFactor,
+        double? SimpleEFactor,
+        double MassInKg,
+        double MassOutKg,
+        double VentedKg,
+        double GapKg,
+        double? ClosurePct,
+        double CombinedUncertaintyKg,
+        IReadOnlyDictionary<string, double> Equivalents,
+        IReadOnlyList<LadderJson> Ladder,
+        IReadOnlyList<FlagJson> Flags);
+
+    public sealed record LadderJson(string Rung, string Label, double Kg, double PctOfCharged);
+
+    public sealed record BatchShowJson(
+        string Batch,
+        int Revision,
+        string Recipe,
+        int RecipeVersion,
+        string ProductionDay,
+        bool Current,
+        int Revisions,
+        string SourceFile,
+        IReadOnlyList<FlagJson> Flags,
+        IReadOnlyList<StepJson> Steps);
+
+    public static BatchShowJson From(BatchView view)
+    {
+        var steps = view.Steps.Select(s => Step(s.Outcome, s.Flags.Select(f => Flag(f.Flag, f.Id)).ToList())).ToList();
+        return new BatchShowJson(
+            view.BatchId,
+            view.Revision,
+            view.Recipe,
+            view.RecipeVersion,
+            view.ProductionDay.ToString("yyyy-MM-dd", System.Globalization.CultureInfo.InvariantCulture),
+            view.IsCurrent,
+            view.RevisionCount,
+            view.SourceFile,
+            steps.SelectMany(s => s.Flags).ToList(),
+            steps);
+    }
+
+    public static FlagJson Flag(Flag flag, long? id) =>
+        new(id, flag.Code.ToText(), flag.Severity.ToText(), flag.Message, Round(flag.Measured), Round(flag.Limit), flag.Unit, flag.Subject);
+
+    public static StepJson Step(StepOutcome s, IReadOnlyList<FlagJson> flags) => new(
+        s.Step,
+        s.LimitingReactant,
+        Round(s.TheoreticalKg),
+        Round(s.ActualKg),
+        Round(s.YieldPct),
+        Round(s.AtomEconomyPct),
+        Round(s.StoichiometricFactor, 4),
+        Round(s.RmePct),
+        Round(s.Pmi, 4),
+        Round(s.CompleteEFactor, 4),
+        Round(s.SimpleEFactor, 4),
+        Round(s.MassInKg),
+        Round(s.MassOutKg),
+        Round(s.VentedKg),
+        Round(s.GapKg),
+        Round(s.ClosurePct),
+        Round(s.CombinedUncertaintyKg, 4),
+        s.Equivalents.ToDictionary(e => e.Key, e => Round(e.Value, 4)),
+        s.Ladder.Select(r => new LadderJson(r.Key, r.Label, Round(r.Kg), Round(r.PctOfCharged))).ToList(),
+        flags);
+
+    /// <summary>Masses to 0.001 kg and percentages to 0.001 %: enough for a balance read to 1 g, without binary noise.</summary>
+    private static double Round(double value, int digits = 3) =>
+        double.IsFinite(value) && Math.Abs(value) < 1e15 ? (double)Math.Round((decimal)value, digits, MidpointRounding.ToEven) : value;
+
+    private static double? Round(double? value, int digits = 3) => value is { } v ? Round(v, digits) : null;
+}

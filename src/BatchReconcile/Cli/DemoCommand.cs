@@ -1,0 +1,160 @@
+using System.CommandLine;
+using System.Globalization;
+using BatchReconcile.Hosting;
+using BatchReconcile.Intake.Inbox;
+using BatchReconcile.Pipeline;
+using BatchReconcile.Records.Definitions;
+using BatchReconcile.Storage;
+using BatchReconcile.Storage.Ingest;
+using Microsoft.Extensions.DependencyInjection;
+using Microsoft.Extensions.Options;
+using Spectre.Console;
+
+namespace BatchReconcile.Cli;
+
+/// <summary>
+/// <c>demo</c>: the whole job once over the sample scenario, into a fresh data folder, then a summary of
+/// batches, yields and flags and where every file went.
+/// </summary>
+/// <remarks>
+/// Exits 0 when the scenario ran: its malformed files are meant to be quarantined, and the summary says so.
+/// </remarks>
+public static class DemoCommand
+{
+    private static readonly CultureInfo Inv = CultureInfo.InvariantCulture;
+
+    public static Command Create(GlobalOptions globals, TextWriter stdout)
+    {
+        var samples = new Option<DirectoryInfo>("--samples")
+        {
+            Description = "Folder of sample exports (default: sample-data/inbox)",
+            DefaultValueFactory = _ => new DirectoryInfo(Path.Combine("sample-data", "inbox")),
+        };
+        var command = new Command("demo", "Run the whole job once over the sample scenario into a fresh data folder and summarise it") { samples };
+        command.SetAction(parse =>
+        {
+            var source = parse.GetRequiredValue(samples);
+            if (!source.Exists)
+            {
+                throw new UsageException($"{source.FullName}: no such folder (run from the repository root, or give --samples)");
+            }
+
+            var data = parse.GetValue(globals.Data)?.FullName
+                ?? Path.GetFullPath(Path.Combine("demo-data", DateTime.UtcNow.ToString("yyyyMMdd-HHmmss", Inv)));
+            if (Directory.Exists(data) && Directory.EnumerateFileSystemEntries(data).Any())
+            {
+                throw new UsageException($"{data}: the demo needs a new or empty data folder");
+            }
+
+            var context = AppContextOptions.From(parse.GetValue(globals.Config), new DirectoryInfo(data));
+            using var host = HostedCommand.Start(context, service: false, quietConsole: true);
+            var services = host.Services;
+            var folders = services.GetRequiredService<DataFolders>();
+            var files = CopyIntoInbox(source, folders.Inbox, services.GetRequiredService<TimeProvider>());
+            var groupSize = services.GetRequiredService<IOptions<IntakeOptions>>().Value.GroupCommitMaxFiles;
+            var outcomes = IngestCommand.Run(services.GetRequiredService<IngestPipeline>(), files, groupSize, TextWriter.Null, showProgress: false);
+
+            var console = AnsiConsole.Create(new AnsiConsoleSettings { Out = new AnsiConsoleOutput(stdout) });
+            if (Console.IsOutputRedirected || console.Profile.Width < 160)
+            {
+                // Tables wrap badly at 80 columns; a file or a narrow terminal gets the full width.
+                console.Profile.Width = 160;
+            }
+
+            var site = services.GetRequiredService<IOptions<SiteOptions>>().Value;
+            console.WriteLine($"BatchReconcile demo: {site.Name} ({site.TimeZone}, production day from {site.ProductionDayStart})");
+            console.WriteLine($"{files.Count} export files from {source.FullName}");
+            console.WriteLine();
+            WriteFiles(console, outcomes);
+            WriteBatches(console, services.GetRequiredService<BatchStore>());
+            WriteFlags(console, services.GetRequiredService<BatchStore>());
+            WhereEverythingWent(console, folders, outcomes);
+            console.WriteLine("The figures support, not replace, the site's deviation procedure and qualified review.");
+            return ExitCodes.Success;
+        });
+        return command;
+    }
+
+    /// <summary>Copies the sample exports into the inbox in name order (their names carry the arrival time).</summary>
+    private static IReadOnlyList<ReadyFile> CopyIntoInbox(DirectoryInfo source, string inbox, TimeProvider time)
+    {
+        var start = time.GetUtcNow();
+        var ready = new List<ReadyFile>();
+        foreach (var (file, i) in source.EnumerateFiles("*.csv").OrderBy(f => f.Name, StringComparer.Ordinal).Select((f, i) => (f, i)))
+        {
+            var target = Path.Combine(inbox, file.Name);
+            file.CopyTo(target);
+            var arrived = start.AddMilliseconds(i);
+            ready.Add(new ReadyFile(target, file.Name, arrived, file.Length, arrived));
+        }
+
+        return ready;
+    }
+
+    private static void WriteFiles(IAnsiConsole console, IReadOnlyList<FileOutcome> outcomes)
+    {
+        var table = new Table().Title("Files").AddColumns("file", "outcome", "batches");
+        foreach (var o in outcomes)
+        {
+            var batches = o.Outcome == IngestOutcome.Quarantined
+                ? string.Create(Inv, $"{o.Errors.Count} problem(s), e.g. line {o.Errors[0].Line} {o.Errors[0].Column}: {o.Errors[0].Reason}")
+                : string.Join(", ", o.Batches.Select(b => string.Create(Inv, $"{b.BatchId} rev {b.Revision}")));
+            table.AddRow(Markup.Escape(o.File), o.Outcome.ToText(), Markup.Escape(batches));
+        }
+
+        console.Write(table);
+        console.WriteLine();
+    }
+
+    private static void WriteBatches(IAnsiConsole console, BatchStore store)
+    {
+        var table = new Table().Title("Batches (latest revision)").AddColumns("day", "batch", "recipe", "rev", "step", "yield %", "AE %", "PMI", "closure %", "flags");
+        foreach (var summary in store.ListBatches().OrderBy(b => b.ProductionDay).ThenBy(b => b.BatchId, StringComparer.Ordinal))
+        {
+            var view = store.GetLatestBatch(summary.BatchId)!;
+            foreach (var step in view.Steps)
+            {
+                var s = step.Outcome;
+                table.AddRow(
+                    summary.ProductionDay.ToString("yyyy-MM-dd", Inv),
+                    Markup.Escape(summary.BatchId),
+                    Markup.Escape(summary.Recipe),
+                    summary.Revision.ToString(Inv),
+                    Markup.Escape(s.Step),
+                    F(s.YieldPct, "F1"),
+                    F(s.AtomEconomyPct, "F1"),
+                    F(s.Pmi, "F2"),
+                    F(s.ClosurePct, "F1"),
+                    Markup.Escape(string.Join(", ", step.Flags.Select(f => f.Flag.Code.ToText()))));
+            }
+        }
+
+        console.Write(table);
+        console.WriteLine();
+    }
+
+    private static void WriteFlags(IAnsiConsole console, BatchStore store)
+    {
+        var flags = store.ListFlags();
+        var table = new Table().Title("Flags of current revisions").AddColumns("id", "day", "severity", "batch", "step", "code", "message");
+        foreach (var f in flags.OrderBy(f => f.ProductionDay).ThenBy(f => f.Severity).ThenBy(f => f.Id))
+        {
+            table.AddRow(f.Id.ToString(Inv), f.ProductionDay.ToString("yyyy-MM-dd", Inv), f.Severity.ToText(), Markup.Escape(f.BatchId), Markup.Escape(f.Step), f.Code.ToText(), Markup.Escape(f.Message));
+        }
+
+        console.Write(table);
+        console.WriteLine();
+    }
+
+    private static void WhereEverythingWent(IAnsiConsole console, DataFolders folders, IReadOnlyList<FileOutcome> outcomes)
+    {
+        console.WriteLine($"Data folder:  {folders.Root}");
+        console.WriteLine($"  database:   {folders.Database}");
+        console.WriteLine(string.Create(Inv, $"  archive:    {folders.Archive} ({outcomes.Count(o => o.Outcome != IngestOutcome.Quarantined)} files)"));
+        console.WriteLine(string.Create(Inv, $"  quarantine: {folders.Quarantine} ({outcomes.Count(o => o.Outcome == IngestOutcome.Quarantined)} files, each with a .report.txt)"));
+        console.WriteLine($"  logs:       {folders.Logs}");
+        console.WriteLine("Look closer: batchreconcile batches show BATCH --data " + folders.Root);
+    }
+
+    private static string F(double? value, string format) => value is { } v ? v.ToString(format, Inv) : "-";
+}

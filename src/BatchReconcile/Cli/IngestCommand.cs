@@ -1,0 +1,133 @@
+using System.CommandLine;
+using BatchReconcile.Hosting;
+using BatchReconcile.Intake.Inbox;
+using BatchReconcile.Pipeline;
+using BatchReconcile.Storage.Ingest;
+using Microsoft.Extensions.DependencyInjection;
+using Microsoft.Extensions.Options;
+using Spectre.Console;
+
+namespace BatchReconcile.Cli;
+
+/// <summary><c>ingest PATH... [--json]</c>: the service's pipeline once over files or folders, then exit.</summary>
+public static class IngestCommand
+{
+    public static Command Create(GlobalOptions globals, TextWriter stdout, TextWriter stderr)
+    {
+        var paths = new Argument<string[]>("PATH") { Description = "Export files, or folders whose ready files are taken in arrival order", Arity = ArgumentArity.OneOrMore };
+        var json = new Option<bool>("--json") { Description = "Print one JSON document on stdout" };
+        var command = new Command("ingest", "Validate, reconcile and store export files once; archive or quarantine each") { paths, json };
+        command.SetAction(parse => HostedCommand.Run(parse, globals, service: false, host =>
+        {
+            var intake = host.Services.GetRequiredService<IOptions<IntakeOptions>>().Value;
+            var time = host.Services.GetRequiredService<TimeProvider>();
+            var files = Collect(parse.GetRequiredValue(paths), TimeSpan.FromSeconds(intake.SettleSeconds), time, stderr);
+            var pipeline = host.Services.GetRequiredService<IngestPipeline>();
+            var asJson = parse.GetValue(json);
+            var outcomes = Run(pipeline, files, intake.GroupCommitMaxFiles, asJson ? stderr : stdout, showProgress: !asJson && !Console.IsOutputRedirected);
+            if (asJson)
+            {
+                JsonOutput.Write(stdout, outcomes.Select(ToJson).ToList());
+            }
+            else
+            {
+                WriteSummary(stdout, outcomes);
+            }
+
+            return outcomes.Any(o => o.Outcome == IngestOutcome.Quarantined) ? ExitCodes.CompletedWithQuarantine : ExitCodes.Success;
+        }));
+        return command;
+    }
+
+    /// <summary>Processes the files in groups; on a terminal shows a progress bar, otherwise one plain line per file.</summary>
+    public static IReadOnlyList<FileOutcome> Run(IngestPipeline pipeline, IReadOnlyList<ReadyFile> files, int groupSize, TextWriter lines, bool showProgress)
+    {
+        var outcomes = new List<FileOutcome>(files.Count);
+        var groups = files.Chunk(groupSize).ToList();
+        if (showProgress && files.Count > 1)
+        {
+            AnsiConsole.Progress().AutoClear(true).Start(ctx =>
+            {
+                var task = ctx.AddTask("ingesting", maxValue: files.Count);
+                foreach (var group in groups)
+                {
+                    outcomes.AddRange(pipeline.Process(group));
+                    task.Increment(group.Length);
+                }
+            });
+            return outcomes;
+        }
+
+        foreach (var group in groups)
+        {
+            foreach (var outcome in pipeline.Process(group))
+            {
+                outcomes.Add(outcome);
+                lines.WriteLine($"[{outcomes.Count}/{files.Count}] {outcome.File}: {outcome.Outcome.ToText()}");
+            }
+        }
+
+        return outcomes;
+    }
+
+    private static IReadOnlyList<ReadyFile> Collect(string[] paths, TimeSpan settle, TimeProvider time, TextWriter stderr)
+    {
+        var files = new List<ReadyFile>();
+        foreach (var path in paths)
+        {
+            if (Directory.Exists(path))
+            {
+                var scan = InboxScanner.ScanOnceAsync(path, settle, time).GetAwaiter().GetResult();
+                files.AddRange(scan.Ready);
+                foreach (var notReady in scan.NotReady)
+                {
+                    stderr.WriteLine($"batchreconcile: {notReady} is still being written; left for a later run");
+                }
+            }
+            else if (File.Exists(path))
+            {
+                var name = Path.GetFileName(path);
+                if (!InboxFileName.IsCandidate(name))
+                {
+                    throw new UsageException($"{path}: files starting with '.' or ending in .part or .tmp are never read");
+                }
+
+                var info = new FileInfo(path);
+                var written = new DateTimeOffset(info.LastWriteTimeUtc, TimeSpan.Zero);
+                files.Add(new ReadyFile(info.FullName, name, written, info.Length, written));
+            }
+            else
+            {
+                throw new UsageException($"{path}: no such file or folder");
+            }
+        }
+
+        return files;
+    }
+
+    private static void WriteSummary(TextWriter stdout, IReadOnlyList<FileOutcome> outcomes)
+    {
+        foreach (var o in outcomes)
+        {
+            var batches = o.Batches.Count > 0 ? " (" + string.Join(", ", o.Batches.Select(b => $"{b.BatchId} rev {b.Revision}")) + ")" : string.Empty;
+            stdout.WriteLine($"{o.File}: {o.Outcome.ToText()}{batches} -> {o.MovedTo}");
+            if (o.ReportPath is not null)
+            {
+                stdout.WriteLine($"  {o.Errors.Count} problem(s); report {o.ReportPath}");
+            }
+        }
+
+        stdout.WriteLine(string.Join(", ", outcomes.GroupBy(o => o.Outcome).OrderBy(g => g.Key).Select(g => $"{g.Count()} {g.Key.ToText()}")));
+    }
+
+    private static IngestFileJson ToJson(FileOutcome o) => new(
+        o.File,
+        o.Sha256,
+        o.Outcome.ToText(),
+        o.Batches.Select(b => b.BatchId).ToList(),
+        o.Errors.Select(e => new IngestErrorJson(e.Line, e.Column, e.Value, e.Reason)).ToList());
+
+    private sealed record IngestFileJson(string File, string Sha256, string Outcome, IReadOnlyList<string> Batches, IReadOnlyList<IngestErrorJson> Errors);
+
+    private sealed record IngestErrorJson(int Line, string Column, string Value, string Message);
+}
