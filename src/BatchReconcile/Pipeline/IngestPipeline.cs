@@ -127,7 +127,8 @@ public sealed class IngestPipeline(
             logger.LogInformation("{File} is a duplicate ({Sha256}); archived without storing", file.Name, result.Sha256);
         }
 
-        foreach (var flag in prepared.Ingest.Batches.SelectMany(b => b.Outcome.Flags.Select(f => (b.BatchId, Flag: f))))
+        var storedNow = result.Batches.Where(b => b.Disposition != BatchDisposition.Unchanged).Select(b => b.BatchId).ToHashSet(StringComparer.Ordinal);
+        foreach (var flag in prepared.Ingest.Batches.Where(b => storedNow.Contains(b.BatchId)).SelectMany(b => b.Outcome.Flags.Select(f => (b.BatchId, Flag: f))))
         {
             logger.LogInformation("{File} batch {Batch} step {Step} flag {Flag} ({Severity}): {Message}", file.Name, flag.BatchId, flag.Flag.Step, flag.Flag.Code, flag.Flag.Severity, flag.Flag.Message);
         }
