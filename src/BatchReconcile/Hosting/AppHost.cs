@@ -60,7 +60,7 @@ public static class AppHost
         builder.Services.AddSingleton(sp =>
         {
             var s = sp.GetRequiredService<IOptions<SiteOptions>>().Value;
-            return new ProductionDayCalendar(s.Zone, s.DayStart);
+            return new ProductionDayCalendar(s.GetZone(), s.GetDayStart());
         });
         builder.Services.AddSingleton(sp => new CatalogSource(context.ProcessesDirectory, sp.GetRequiredService<ILogger<CatalogSource>>()));
         builder.Services.AddSingleton(sp => BatchStore.Open(
@@ -70,7 +70,7 @@ public static class AppHost
         builder.Services.AddSingleton(sp =>
         {
             var f = sp.GetRequiredService<DataFolders>();
-            var zone = sp.GetRequiredService<IOptions<SiteOptions>>().Value.Zone;
+            var zone = sp.GetRequiredService<IOptions<SiteOptions>>().Value.GetZone();
             return new FileMover(new ArchiveLayout(f.Archive, zone), f.Quarantine, sp.GetRequiredService<TimeProvider>());
         });
         builder.Services.AddSingleton(sp => sp.GetRequiredService<IOptions<ReconciliationSettings>>().Value);

@@ -42,9 +42,10 @@ public sealed class SiteOptions : IValidatableObject
     [Required]
     public string Database { get; set; } = "batchreconcile.db";
 
-    public TimeZoneInfo Zone => TimeZoneInfo.FindSystemTimeZoneById(TimeZone);
+    /// <remarks>Methods, not properties: the configuration binder reads complex properties while binding.</remarks>
+    public TimeZoneInfo GetZone() => TimeZoneInfo.FindSystemTimeZoneById(TimeZone);
 
-    public TimeOnly DayStart => TimeOnly.ParseExact(ProductionDayStart, "HH:mm", CultureInfo.InvariantCulture);
+    public TimeOnly GetDayStart() => TimeOnly.ParseExact(ProductionDayStart, "HH:mm", CultureInfo.InvariantCulture);
 
     public IEnumerable<ValidationResult> Validate(ValidationContext validationContext)
     {
