@@ -10,7 +10,7 @@ public class StartupValidationTests
     [Fact]
     public async Task A_reaction_that_does_not_balance_stops_start_up_naming_file_recipe_step_and_element()
     {
-        using var temp = new TempFolder();
+        using var temp = new ScratchFolder();
         var config = temp.CopyOfRepositoryConfig();
         var file = Path.Combine(config, "processes", "piperazine.json");
         // One HCl too many, written as a coefficient: H and Cl no longer balance.
@@ -30,7 +30,7 @@ public class StartupValidationTests
     [Fact]
     public async Task A_material_code_defined_in_two_files_stops_start_up_naming_both()
     {
-        using var temp = new TempFolder();
+        using var temp = new ScratchFolder();
         var config = temp.CopyOfRepositoryConfig();
         File.WriteAllText(
             Path.Combine(config, "processes", "extra.json"),
@@ -51,7 +51,7 @@ public class StartupValidationTests
     [InlineData("\"Synchronous\": \"Full\"", "\"Synchronous\": \"Sometimes\"", "Synchronous")]
     public async Task A_bad_site_setting_stops_start_up_naming_the_setting(string good, string bad, string named)
     {
-        using var temp = new TempFolder();
+        using var temp = new ScratchFolder();
         var config = temp.CopyOfRepositoryConfig();
         var settings = Path.Combine(config, "appsettings.json");
         var text = File.ReadAllText(settings);
@@ -68,7 +68,7 @@ public class StartupValidationTests
     [Fact]
     public async Task A_missing_config_folder_is_bad_input()
     {
-        using var temp = new TempFolder();
+        using var temp = new ScratchFolder();
 
         var result = await ProgramRunner.RunAsync("check", SampleFile, "--config", temp.Combine("nowhere"), "--data", temp.Combine("data"));
 

@@ -1,9 +1,9 @@
 namespace BatchReconcile.Cli.Tests.Support;
 
 /// <summary>A temporary folder for one test, deleted afterwards.</summary>
-public sealed class TempFolder : IDisposable
+public sealed class ScratchFolder : IDisposable
 {
-    public TempFolder()
+    public ScratchFolder()
     {
         Path = System.IO.Path.Combine(System.IO.Path.GetTempPath(), "batchreconcile-tests", Guid.NewGuid().ToString("N"));
         Directory.CreateDirectory(Path);
