@@ -85,9 +85,15 @@ public sealed class ProductionDayCalendar
         return DayOf(batch.LastOutputAt ?? arrival);
     }
 
-    private DateTimeOffset StartOf(DateOnly day)
+    private DateTimeOffset StartOf(DateOnly day) => InstantAt(day, DayStart);
+
+    /// <summary>
+    /// The instant at which the plant clock reads <paramref name="time"/> on <paramref name="date"/>, by the same
+    /// rule as the day start: the first occurrence when the clock shows it twice, the jump when it never does.
+    /// </summary>
+    public DateTimeOffset InstantAt(DateOnly date, TimeOnly time)
     {
-        var local = day.ToDateTime(DayStart, DateTimeKind.Unspecified);
+        var local = date.ToDateTime(time, DateTimeKind.Unspecified);
         DateTime utc;
         if (Zone.IsAmbiguousTime(local))
         {

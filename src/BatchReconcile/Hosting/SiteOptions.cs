@@ -23,6 +23,10 @@ public sealed class SiteOptions : IValidatableObject
     [Required]
     public string DigestTime { get; set; } = "07:30";
 
+    /// <summary>On start, digests missed while the service was down are written for at most this many recent days.</summary>
+    [Range(1, 366)]
+    public int DigestCatchUpDays { get; set; } = 7;
+
     /// <summary>Root of the database and the folders below; relative paths are taken from the working directory.</summary>
     [Required]
     public string DataRoot { get; set; } = "data";
