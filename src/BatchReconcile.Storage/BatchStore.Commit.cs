@@ -1,5 +1,6 @@
 using System.Globalization;
 using BatchReconcile.Records.Definitions;
+using BatchReconcile.Storage.Audit;
 using BatchReconcile.Storage.Ingest;
 using BatchReconcile.Storage.Sql;
 using Microsoft.Data.Sqlite;
@@ -142,17 +143,16 @@ public sealed partial class BatchStore
             sql.LinkSuperseded.Set("$new", revisionId).Set("$old", old).Execute();
             sql.RetireFlags.Set("$old", old).Execute();
             sql.RetireSteps.Set("$old", old).Execute();
-            sql.InsertAudit.Set("$at", at).Set("$kind", "batch.revision").Set("$subject", "batch:" + record.BatchId)
-                .Set("$detail", StoreJson.Detail(new
-                {
-                    batch = record.BatchId,
-                    supersededRevision = plan.Revision - 1,
-                    revision = plan.Revision,
-                    file = file.FileName,
-                    sha256 = file.Sha256,
-                    contentSha256 = plan.ContentSha256,
-                }))
-                .Execute();
+            sql.Audit.Append(now, AuditWriter.SystemActor, "batch.revision", "batch:" + record.BatchId, StoreJson.Detail(new
+            {
+                batch = record.BatchId,
+                supersededRevision = plan.Revision - 1,
+                revision = plan.Revision,
+                file = file.FileName,
+                sha256 = file.Sha256,
+                contentSha256 = plan.ContentSha256,
+            }));
+            CloseFlagsOfSuperseded(sql, old, record.BatchId, plan.Revision, file.FileName, now);
         }
 
         foreach (var row in record.Rows)
@@ -203,8 +203,37 @@ public sealed partial class BatchStore
             .ScalarInt64();
 
     private static void Audit(CommitStatements sql, DateTimeOffset now, string kind, FileIngest file, object detail) =>
-        sql.InsertAudit
-            .Set("$at", DbText.Time(now)).Set("$kind", kind).Set("$subject", "file:" + file.Sha256)
-            .Set("$detail", StoreJson.Detail(detail))
-            .Execute();
+        sql.Audit.Append(now, AuditWriter.SystemActor, kind, "file:" + file.Sha256, StoreJson.Detail(detail));
+
+    /// <summary>
+    /// The flags of a superseded revision that still wait for a decision are closed by the system:
+    /// the re-export replaced the figures they were about, and the new revision has its own flags.
+    /// Closed flags keep the outcome their reviewer gave.
+    /// </summary>
+    private static void CloseFlagsOfSuperseded(CommitStatements sql, long oldRevisionRef, string batchId, int newRevision, string fileName, DateTimeOffset now)
+    {
+        var unclosed = new List<(long Id, string State, string Step, string Code)>();
+        using (var reader = sql.UnclosedFlags.Set("$old", oldRevisionRef).Read())
+        {
+            while (reader.Read())
+            {
+                unclosed.Add((reader.GetInt64(0), reader.GetString(1), reader.GetString(2), reader.GetString(3)));
+            }
+        }
+
+        var note = $"superseded by revision {newRevision.ToString(CultureInfo.InvariantCulture)} from file {fileName}";
+        foreach (var flag in unclosed)
+        {
+            SupersededClosing.Close(sql.CloseSuperseded, sql.Audit, now, flag.Id, flag.State, note, new
+            {
+                batch = batchId,
+                revision = newRevision - 1,
+                supersededByRevision = newRevision,
+                file = fileName,
+                step = flag.Step,
+                code = flag.Code,
+                outcome = "superseded",
+            });
+        }
+    }
 }

@@ -2,6 +2,7 @@ using BatchReconcile.Reconciliation.Flags;
 using BatchReconcile.Reconciliation.Outcomes;
 using BatchReconcile.Records.Definitions;
 using BatchReconcile.Storage.Queries;
+using BatchReconcile.Storage.Review;
 using BatchReconcile.Storage.Sql;
 using Microsoft.Data.Sqlite;
 
@@ -84,8 +85,9 @@ public sealed partial class BatchStore
     }
 
     /// <summary>
-    /// Flags ordered by day, severity (critical first), batch and id. By default only flags of
-    /// current revisions; <paramref name="unresolvedOnly"/> leaves out closed flags.
+    /// Flags ordered by day, severity (critical first), batch and id, with their review. By default
+    /// only flags of current revisions; <paramref name="unresolvedOnly"/> leaves out closed flags
+    /// (<c>flags list --open</c>: open and in review).
     /// </summary>
     public IReadOnlyList<FlagListItem> ListFlags(DateOnly? day = null, bool unresolvedOnly = false, bool includeSuperseded = false)
     {
@@ -99,33 +101,127 @@ public sealed partial class BatchStore
                 query.Set("$day", DbText.Day(d));
             }
 
-            using var reader = query.Read();
-            var list = new List<FlagListItem>();
+            return ReadFlagList(query);
+        }
+    }
+
+    /// <summary>
+    /// Flags of current revisions that are not closed, from production days before <paramref name="day"/>
+    /// (oldest day first, then by severity, batch and id); the host computes their age from
+    /// <see cref="FlagListItem.ProductionDay"/>. States are as they stand now.
+    /// </summary>
+    public IReadOnlyList<FlagListItem> UnresolvedFlagsBefore(DateOnly day)
+    {
+        lock (_gate)
+        {
+            ThrowIfDisposed();
+            using var query = new PreparedCommand(_connection, null, StoreQueries.UnresolvedBefore, ("$day", SqliteType.Text));
+            query.Set("$day", DbText.Day(day));
+            return ReadFlagList(query);
+        }
+    }
+
+    /// <summary>The current steps of a production day that carry flags, by batch and step order, with every figure and their flags.</summary>
+    public IReadOnlyList<FlaggedStep> FlaggedStepsOfDay(DateOnly day)
+    {
+        lock (_gate)
+        {
+            ThrowIfDisposed();
+            var dayText = DbText.Day(day);
+            var flags = new Dictionary<(long Revision, string Step), List<StoredFlag>>();
+            using (var flagQuery = new PreparedCommand(_connection, null, StoreQueries.FlagsOfDay, ("$day", SqliteType.Text)))
+            using (var reader = flagQuery.Set("$day", dayText).Read())
+            {
+                while (reader.Read())
+                {
+                    var flag = ReadFlag(reader);
+                    var key = (reader.GetInt64(FlagColumnCount), flag.Flag.Step);
+                    if (!flags.TryGetValue(key, out var list))
+                    {
+                        flags[key] = list = [];
+                    }
+
+                    list.Add(flag);
+                }
+            }
+
+            using var stepQuery = new PreparedCommand(_connection, null, StoreQueries.FlaggedStepsOfDay, ("$day", SqliteType.Text));
+            using var steps = stepQuery.Set("$day", dayText).Read();
+            var result = new List<FlaggedStep>();
+            while (steps.Read())
+            {
+                var revisionRef = steps.GetInt64(4);
+                var stepFlags = flags.GetValueOrDefault((revisionRef, steps.GetString(5))) ?? [];
+                result.Add(new FlaggedStep(
+                    steps.GetString(0), steps.GetInt32(1), steps.GetString(2), steps.GetInt32(3), day, ReadStep(steps, 5, stepFlags)));
+            }
+
+            return result;
+        }
+    }
+
+    /// <summary>The recipe steps that ran on a production day (current revisions), by recipe and step order.</summary>
+    public IReadOnlyList<RecipeStepKey> RecipeStepsOfDay(DateOnly day)
+    {
+        lock (_gate)
+        {
+            ThrowIfDisposed();
+            using var query = new PreparedCommand(_connection, null, StoreQueries.RecipeStepsOfDay, ("$day", SqliteType.Text));
+            using var reader = query.Set("$day", DbText.Day(day)).Read();
+            var list = new List<RecipeStepKey>();
             while (reader.Read())
             {
-                list.Add(new FlagListItem(
-                    reader.GetInt64(0),
-                    reader.GetString(1),
-                    reader.GetInt32(2),
-                    reader.GetString(3),
-                    ParseCode(reader.GetString(4)),
-                    ParseSeverity(reader.GetString(5)),
-                    reader.GetString(6),
-                    DbText.ParseDay(reader.GetString(7)),
-                    reader.GetString(8),
-                    reader.NullableDouble(9),
-                    reader.NullableDouble(10),
-                    reader.GetString(11),
-                    reader.NullableString(12),
-                    reader.GetInt64(13) == 1));
+                list.Add(new RecipeStepKey(reader.GetString(0), reader.GetString(1)));
             }
 
             return list;
         }
     }
 
+    private static List<FlagListItem> ReadFlagList(PreparedCommand query)
+    {
+        using var reader = query.Read();
+        var list = new List<FlagListItem>();
+        while (reader.Read())
+        {
+            list.Add(new FlagListItem(
+                reader.GetInt64(0),
+                reader.GetString(1),
+                reader.GetInt32(2),
+                reader.GetString(3),
+                ParseCode(reader.GetString(4)),
+                ParseSeverity(reader.GetString(5)),
+                ReadReview(reader, 6, 15),
+                DbText.ParseDay(reader.GetString(7)),
+                reader.GetString(8),
+                reader.NullableDouble(9),
+                reader.NullableDouble(10),
+                reader.GetString(11),
+                reader.NullableString(12),
+                reader.GetInt64(13) == 1,
+                reader.GetString(14)));
+        }
+
+        return list;
+    }
+
+    /// <summary>A review from the state column and the five columns outcome, note, deviation ref, by, at starting at <paramref name="first"/>.</summary>
+    private static FlagReview ReadReview(SqliteDataReader reader, int state, int first) => new(
+        ReviewText.ParseStoredState(reader.GetString(state)),
+        ReviewText.ParseStoredOutcome(reader.NullableString(first)),
+        reader.NullableString(first + 1),
+        reader.NullableString(first + 2),
+        reader.NullableString(first + 3),
+        reader.NullableTime(first + 4));
+
     /// <summary>The last <paramref name="lastN"/> current results of one recipe step, oldest first.</summary>
-    public IReadOnlyList<StepHistoryPoint> StepHistory(string recipe, string step, int lastN)
+    public IReadOnlyList<StepHistoryPoint> StepHistory(string recipe, string step, int lastN) => StepHistory(recipe, step, lastN, null);
+
+    /// <summary>
+    /// The last <paramref name="lastN"/> current results of one recipe step with a production day
+    /// up to and including <paramref name="upTo"/> (all days when null), oldest first.
+    /// </summary>
+    public IReadOnlyList<StepHistoryPoint> StepHistory(string recipe, string step, int lastN, DateOnly? upTo)
     {
         ArgumentNullException.ThrowIfNull(recipe);
         ArgumentNullException.ThrowIfNull(step);
@@ -134,7 +230,13 @@ public sealed partial class BatchStore
         {
             ThrowIfDisposed();
             using var query = new PreparedCommand(
-                _connection, null, StoreQueries.StepHistory, ("$recipe", SqliteType.Text), ("$step", SqliteType.Text), ("$limit", SqliteType.Integer));
+                _connection, null, upTo is null ? StoreQueries.StepHistory : StoreQueries.StepHistoryUpTo,
+                ("$recipe", SqliteType.Text), ("$step", SqliteType.Text), ("$limit", SqliteType.Integer), ("$day", SqliteType.Text));
+            if (upTo is { } last)
+            {
+                query.Set("$day", DbText.Day(last));
+            }
+
             using var reader = query.Set("$recipe", recipe).Set("$step", step).Set("$limit", lastN).Read();
             var list = new List<StepHistoryPoint>();
             while (reader.Read())
@@ -167,7 +269,7 @@ public sealed partial class BatchStore
             using var query = new PreparedCommand(_connection, null, StoreQueries.CountsOfDay, ("$day", SqliteType.Text));
             using var reader = query.Set("$day", DbText.Day(day)).Read();
             reader.Read();
-            return new DayCounts(day, reader.GetInt32(0), reader.GetInt32(1), reader.GetInt32(2), reader.GetInt32(3), reader.GetInt32(4));
+            return new DayCounts(day, reader.GetInt32(0), reader.GetInt32(1), reader.GetInt32(2), reader.GetInt32(3), reader.GetInt32(4), reader.GetInt32(5));
         }
     }
 
@@ -195,6 +297,8 @@ public sealed partial class BatchStore
         }
     }
 
+    private const int FlagColumnCount = 18;
+
     private List<StoredFlag> ReadFlagsOfRevision(long revisionId)
     {
         using var query = new PreparedCommand(_connection, null, StoreQueries.FlagsOfRevision, ("$revision", SqliteType.Integer));
@@ -202,25 +306,31 @@ public sealed partial class BatchStore
         var flags = new List<StoredFlag>();
         while (reader.Read())
         {
-            var flag = new Flag(
-                ParseCode(reader.GetString(2)),
-                ParseSeverity(reader.GetString(3)),
-                reader.GetString(1),
-                reader.NullableDouble(4),
-                reader.NullableDouble(5),
-                reader.GetString(6),
-                reader.GetString(7),
-                reader.NullableString(8));
-            flags.Add(new StoredFlag(
-                reader.GetInt64(0),
-                flag,
-                reader.GetString(9),
-                DbText.ParseDay(reader.GetString(10)),
-                reader.GetInt64(11) == 1,
-                DbText.ParseTime(reader.GetString(12))));
+            flags.Add(ReadFlag(reader));
         }
 
         return flags;
+    }
+
+    /// <summary>A flag from a row selected with <see cref="StoreQueries.FlagColumns"/> first.</summary>
+    private static StoredFlag ReadFlag(SqliteDataReader reader)
+    {
+        var flag = new Flag(
+            ParseCode(reader.GetString(2)),
+            ParseSeverity(reader.GetString(3)),
+            reader.GetString(1),
+            reader.NullableDouble(4),
+            reader.NullableDouble(5),
+            reader.GetString(6),
+            reader.GetString(7),
+            reader.NullableString(8));
+        return new StoredFlag(
+            reader.GetInt64(0),
+            flag,
+            ReadReview(reader, 9, 13),
+            DbText.ParseDay(reader.GetString(10)),
+            reader.GetInt64(11) == 1,
+            DbText.ParseTime(reader.GetString(12)));
     }
 
     private List<StoredStep> ReadStepsOfRevision(long revisionId, List<StoredFlag> flags)
@@ -231,40 +341,45 @@ public sealed partial class BatchStore
         while (r.Read())
         {
             var code = r.GetString(0);
-            var stepFlags = flags.Where(f => string.Equals(f.Flag.Step, code, StringComparison.Ordinal)).ToList();
-            var outcome = new StepOutcome(
-                Step: code,
-                HasRows: r.GetInt64(1) == 1,
-                LimitingReactant: r.NullableString(2),
-                ExtentMaxMol: r.NullableDouble(3),
-                TheoreticalKg: r.NullableDouble(4),
-                ActualKg: r.GetDouble(5),
-                YieldPct: r.NullableDouble(6),
-                AtomEconomyPct: r.GetDouble(7),
-                StoichiometricFactor: r.NullableDouble(8),
-                RmePct: r.NullableDouble(9),
-                Mrp: r.NullableDouble(10),
-                OverallRmePct: r.NullableDouble(11),
-                Pmi: r.NullableDouble(12),
-                CompleteEFactor: r.NullableDouble(13),
-                SimpleEFactor: r.NullableDouble(14),
-                MassInKg: r.GetDouble(15),
-                ReactantMassKg: r.GetDouble(16),
-                StoichiometricMassKg: r.NullableDouble(17),
-                RecoveredKg: r.GetDouble(18),
-                MassOutKg: r.GetDouble(19),
-                VentedKg: r.GetDouble(20),
-                VentedMaxKg: r.GetDouble(21),
-                GapKg: r.GetDouble(22),
-                ClosurePct: r.NullableDouble(23),
-                CombinedUncertaintyKg: r.GetDouble(24),
-                Equivalents: StoreJson.ParseEquivalents(r.GetString(25)),
-                Ladder: StoreJson.ParseLadder(r.GetString(26)),
-                Flags: stepFlags.Select(f => f.Flag).ToList());
-            steps.Add(new StoredStep(outcome, stepFlags));
+            steps.Add(ReadStep(r, 0, flags.Where(f => string.Equals(f.Flag.Step, code, StringComparison.Ordinal)).ToList()));
         }
 
         return steps;
+    }
+
+    /// <summary>A step from <see cref="StoreQueries.StepColumns"/> starting at column <paramref name="o"/>.</summary>
+    private static StoredStep ReadStep(SqliteDataReader r, int o, IReadOnlyList<StoredFlag> stepFlags)
+    {
+        var outcome = new StepOutcome(
+            Step: r.GetString(o),
+            HasRows: r.GetInt64(o + 1) == 1,
+            LimitingReactant: r.NullableString(o + 2),
+            ExtentMaxMol: r.NullableDouble(o + 3),
+            TheoreticalKg: r.NullableDouble(o + 4),
+            ActualKg: r.GetDouble(o + 5),
+            YieldPct: r.NullableDouble(o + 6),
+            AtomEconomyPct: r.GetDouble(o + 7),
+            StoichiometricFactor: r.NullableDouble(o + 8),
+            RmePct: r.NullableDouble(o + 9),
+            Mrp: r.NullableDouble(o + 10),
+            OverallRmePct: r.NullableDouble(o + 11),
+            Pmi: r.NullableDouble(o + 12),
+            CompleteEFactor: r.NullableDouble(o + 13),
+            SimpleEFactor: r.NullableDouble(o + 14),
+            MassInKg: r.GetDouble(o + 15),
+            ReactantMassKg: r.GetDouble(o + 16),
+            StoichiometricMassKg: r.NullableDouble(o + 17),
+            RecoveredKg: r.GetDouble(o + 18),
+            MassOutKg: r.GetDouble(o + 19),
+            VentedKg: r.GetDouble(o + 20),
+            VentedMaxKg: r.GetDouble(o + 21),
+            GapKg: r.GetDouble(o + 22),
+            ClosurePct: r.NullableDouble(o + 23),
+            CombinedUncertaintyKg: r.GetDouble(o + 24),
+            Equivalents: StoreJson.ParseEquivalents(r.GetString(o + 25)),
+            Ladder: StoreJson.ParseLadder(r.GetString(o + 26)),
+            Flags: stepFlags.Select(f => f.Flag).ToList());
+        return new StoredStep(outcome, stepFlags);
     }
 
     private static FlagCode ParseCode(string text) =>

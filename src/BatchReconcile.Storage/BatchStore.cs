@@ -44,8 +44,9 @@ public sealed partial class BatchStore : IDisposable
         var connection = StoreConnectionFactory.Open(databasePath, settings);
         try
         {
-            SchemaMigrator.MigrateToLatest(connection);
-            return new BatchStore(connection, time ?? TimeProvider.System);
+            time ??= TimeProvider.System;
+            SchemaMigrator.MigrateToLatest(connection, time);
+            return new BatchStore(connection, time);
         }
         catch
         {

@@ -12,6 +12,7 @@ public static class Migrations
         new(1, "core tables: ingest log, batches, revisions, raw rows, step results, flags", V1CoreTables),
         new(2, "query support: production day and recipe copied onto flags and step results, indexes", V2QuerySupport),
         new(3, "append-only audit trail", V3AuditTrail),
+        new(4, "review trail: flag review state, hash-chained audit entries, digest records, day indexes", V4ReviewTrail, ReviewTrailBackfill.Run, V4Finish),
     ];
 
     public static int Latest => All[^1].Version;
@@ -161,4 +162,74 @@ public static class Migrations
             SELECT RAISE(ABORT, 'audit_event is append-only');
         END;
         """;
+
+    private const string FlagReviewInvalid = """
+        NEW.state NOT IN ('open', 'in-review', 'closed')
+            OR ((NEW.state = 'closed') <> (NEW.outcome IS NOT NULL))
+            OR (NEW.outcome = 'deviation' AND coalesce(NEW.deviation_ref, '') = '')
+        """;
+
+    // Entries written by version 3 get their hashes from ReviewTrailBackfill, which is why the
+    // update trigger is dropped here and created again, unchanged, by V4Finish in the same transaction.
+    private const string V4ReviewTrail = $"""
+        ALTER TABLE audit_event ADD COLUMN actor TEXT NOT NULL DEFAULT 'system';
+        ALTER TABLE audit_event ADD COLUMN from_state TEXT;
+        ALTER TABLE audit_event ADD COLUMN to_state TEXT;
+        ALTER TABLE audit_event ADD COLUMN note TEXT;
+        ALTER TABLE audit_event ADD COLUMN deviation_ref TEXT;
+        ALTER TABLE audit_event ADD COLUMN prev_hash TEXT;
+        ALTER TABLE audit_event ADD COLUMN hash TEXT;
+        DROP TRIGGER audit_event_no_update;
+        -- The database itself refuses an entry that is not linked to the last one (a writer that
+        -- forgot the chain); the content hash is computed by the program and checked by audit verify.
+        CREATE TRIGGER audit_event_chained BEFORE INSERT ON audit_event
+        WHEN NEW.hash IS NULL OR length(NEW.hash) <> 64
+            OR NEW.prev_hash IS NOT coalesce((SELECT hash FROM audit_event ORDER BY id DESC LIMIT 1), '{GenesisHash}')
+        BEGIN
+            SELECT RAISE(ABORT, 'audit_event entries carry their own hash and the hash of the entry before them');
+        END;
+
+        ALTER TABLE flag ADD COLUMN outcome TEXT CHECK (outcome IN ('explained', 'deviation', 'corrected', 'superseded'));
+        ALTER TABLE flag ADD COLUMN review_note TEXT;
+        ALTER TABLE flag ADD COLUMN deviation_ref TEXT;
+        ALTER TABLE flag ADD COLUMN reviewed_by TEXT;
+        ALTER TABLE flag ADD COLUMN reviewed_at TEXT;
+        CREATE TRIGGER flag_review_valid_insert BEFORE INSERT ON flag
+        WHEN {FlagReviewInvalid}
+        BEGIN
+            SELECT RAISE(ABORT, 'flag review: unknown state, closed without outcome (or outcome while not closed), or deviation without reference');
+        END;
+        CREATE TRIGGER flag_review_valid_update BEFORE UPDATE OF state, outcome, deviation_ref ON flag
+        WHEN {FlagReviewInvalid}
+        BEGIN
+            SELECT RAISE(ABORT, 'flag review: unknown state, closed without outcome (or outcome while not closed), or deviation without reference');
+        END;
+
+        -- Flags still waiting for a decision, by day: the digest's "open from earlier days" reads
+        -- only these, however many closed flags the years have gathered.
+        CREATE INDEX ix_flag_unresolved ON flag (production_day) WHERE is_current = 1 AND state <> 'closed';
+        CREATE INDEX ix_step_result_day ON step_result (production_day, is_current, has_rows);
+
+        -- One row per write of a day's digest; the first write of a day is unique.
+        CREATE TABLE digest (
+            id         INTEGER PRIMARY KEY AUTOINCREMENT,
+            day        TEXT    NOT NULL CHECK (day GLOB '[0-9][0-9][0-9][0-9]-[0-9][0-9]-[0-9][0-9]'),
+            written_at TEXT    NOT NULL,
+            written_by TEXT    NOT NULL,
+            is_rewrite INTEGER NOT NULL CHECK (is_rewrite IN (0, 1)),
+            files      TEXT    NOT NULL,
+            flag_count INTEGER NOT NULL CHECK (flag_count >= 0)
+        );
+        CREATE UNIQUE INDEX ux_digest_first_write ON digest (day) WHERE is_rewrite = 0;
+        CREATE INDEX ix_digest_day ON digest (day, id);
+        """;
+
+    private const string V4Finish = """
+        CREATE TRIGGER audit_event_no_update BEFORE UPDATE ON audit_event
+        BEGIN
+            SELECT RAISE(ABORT, 'audit_event is append-only');
+        END;
+        """;
+
+    private const string GenesisHash = "0000000000000000000000000000000000000000000000000000000000000000";
 }

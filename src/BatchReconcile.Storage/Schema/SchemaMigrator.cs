@@ -18,12 +18,12 @@ public static class SchemaMigrator
     /// <summary>Applies every migration the database has not had yet, each in its own transaction.</summary>
     /// <returns>The versions applied, oldest first (empty when the database was up to date).</returns>
     /// <exception cref="StoreException">The database was written by a newer program.</exception>
-    public static IReadOnlyList<int> MigrateToLatest(SqliteConnection connection) =>
-        MigrateTo(connection, Migrations.Latest);
+    public static IReadOnlyList<int> MigrateToLatest(SqliteConnection connection, TimeProvider? time = null) =>
+        MigrateTo(connection, Migrations.Latest, time);
 
     /// <summary>Applies migrations up to and including <paramref name="targetVersion"/> (tests build old databases with it).</summary>
     /// <exception cref="StoreException">The database is newer than <see cref="Migrations.Latest"/>.</exception>
-    public static IReadOnlyList<int> MigrateTo(SqliteConnection connection, int targetVersion)
+    public static IReadOnlyList<int> MigrateTo(SqliteConnection connection, int targetVersion, TimeProvider? time = null)
     {
         ArgumentNullException.ThrowIfNull(connection);
         ArgumentOutOfRangeException.ThrowIfNegative(targetVersion);
@@ -59,13 +59,10 @@ public static class SchemaMigrator
                     $"but migration {migration.Version} expects version {migration.Version - 1}.");
             }
 
-            using (var command = connection.CreateCommand())
-            {
-                command.Transaction = transaction;
-                command.CommandText = migration.Sql + Environment.NewLine +
-                    $"PRAGMA user_version = {migration.Version.ToString(CultureInfo.InvariantCulture)};";
-                command.ExecuteNonQuery();
-            }
+            Execute(connection, transaction, migration.Sql);
+            migration.Code?.Invoke(new MigrationContext(connection, transaction, (time ?? TimeProvider.System).GetUtcNow()));
+            Execute(connection, transaction,
+                migration.FinishSql + Environment.NewLine + $"PRAGMA user_version = {migration.Version.ToString(CultureInfo.InvariantCulture)};");
 
             transaction.Commit();
             applied.Add(migration.Version);
@@ -73,6 +70,14 @@ public static class SchemaMigrator
 
         RefuseNewer(connection, CurrentVersion(connection));
         return applied;
+    }
+
+    private static void Execute(SqliteConnection connection, SqliteTransaction transaction, string sql)
+    {
+        using var command = connection.CreateCommand();
+        command.Transaction = transaction;
+        command.CommandText = sql;
+        command.ExecuteNonQuery();
     }
 
     private static void RefuseNewer(SqliteConnection connection, int version)

@@ -1,3 +1,4 @@
+using BatchReconcile.Storage.Audit;
 using Microsoft.Data.Sqlite;
 
 namespace BatchReconcile.Storage.Sql;
@@ -85,9 +86,9 @@ internal sealed class CommitStatements : IDisposable
             """,
             ("$revision", I), ("$step", T), ("$code", T), ("$severity", T), ("$measured", R), ("$limit", R), ("$unit", T),
             ("$message", T), ("$subject", T), ("$at", T), ("$day", T));
-        InsertAudit = Make(
-            "INSERT INTO audit_event (at, kind, subject, detail) VALUES ($at, $kind, $subject, $detail)",
-            ("$at", T), ("$kind", T), ("$subject", T), ("$detail", T));
+        UnclosedFlags = Make("SELECT id, state, step, code FROM flag WHERE revision_ref = $old AND state <> 'closed' ORDER BY id", ("$old", I));
+        CloseSuperseded = Make(SupersededClosing.Sql, SupersededClosing.Parameters);
+        Audit = new AuditWriter(connection, transaction);
     }
 
     public PreparedCommand FindFile { get; }
@@ -114,10 +115,15 @@ internal sealed class CommitStatements : IDisposable
 
     public PreparedCommand InsertFlag { get; }
 
-    public PreparedCommand InsertAudit { get; }
+    public PreparedCommand UnclosedFlags { get; }
+
+    public PreparedCommand CloseSuperseded { get; }
+
+    public AuditWriter Audit { get; }
 
     public void Dispose()
     {
+        Audit.Dispose();
         foreach (var command in _all)
         {
             command.Dispose();

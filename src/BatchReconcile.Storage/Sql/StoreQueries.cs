@@ -14,22 +14,63 @@ internal static class StoreQueries
         WHERE b.batch_id = $batch AND (($revision IS NULL AND r.superseded_at IS NULL) OR r.revision = $revision)
         """;
 
-    public const string StepsOfRevision = """
-        SELECT step, has_rows, limiting_reactant, extent_max_mol, theoretical_kg, actual_kg, yield_pct, atom_economy_pct,
-               stoichiometric_factor, rme_pct, mrp, overall_rme_pct, pmi, complete_e_factor, simple_e_factor,
-               mass_in_kg, reactant_mass_kg, stoichiometric_mass_kg, recovered_kg, mass_out_kg, vented_kg,
-               vented_max_kg, gap_kg, closure_pct, combined_uncertainty_kg, equivalents, ladder
-        FROM step_result WHERE revision_ref = $revision ORDER BY step_order
+    /// <summary>The columns of a step result, in the order <c>BatchStore.ReadStep</c> reads them (prefix <c>s.</c>).</summary>
+    public const string StepColumns = """
+        s.step, s.has_rows, s.limiting_reactant, s.extent_max_mol, s.theoretical_kg, s.actual_kg, s.yield_pct, s.atom_economy_pct,
+        s.stoichiometric_factor, s.rme_pct, s.mrp, s.overall_rme_pct, s.pmi, s.complete_e_factor, s.simple_e_factor,
+        s.mass_in_kg, s.reactant_mass_kg, s.stoichiometric_mass_kg, s.recovered_kg, s.mass_out_kg, s.vented_kg,
+        s.vented_max_kg, s.gap_kg, s.closure_pct, s.combined_uncertainty_kg, s.equivalents, s.ladder
         """;
 
-    public const string FlagsOfRevision = """
-        SELECT id, step, code, severity, measured, limit_value, unit, message, subject, state, production_day, is_current, created_at
-        FROM flag WHERE revision_ref = $revision ORDER BY id
+    /// <summary>The columns of a flag, in the order <c>BatchStore.ReadFlag</c> reads them (prefix <c>f.</c>).</summary>
+    public const string FlagColumns = """
+        f.id, f.step, f.code, f.severity, f.measured, f.limit_value, f.unit, f.message, f.subject, f.state, f.production_day,
+        f.is_current, f.created_at, f.outcome, f.review_note, f.deviation_ref, f.reviewed_by, f.reviewed_at
+        """;
+
+    public const string StepsOfRevision = $"""
+        SELECT {StepColumns}
+        FROM step_result s WHERE s.revision_ref = $revision ORDER BY s.step_order
+        """;
+
+    public const string FlagsOfRevision = $"""
+        SELECT {FlagColumns}
+        FROM flag f WHERE f.revision_ref = $revision ORDER BY f.id
+        """;
+
+    /// <summary>Current steps of a day that carry a flag; reads the day's steps from <c>ix_step_result_day</c>.</summary>
+    public const string FlaggedStepsOfDay = $"""
+        SELECT b.batch_id, r.revision, r.recipe, r.recipe_version, s.revision_ref, {StepColumns}
+        FROM step_result s
+        JOIN batch_revision r ON r.id = s.revision_ref
+        JOIN batch b ON b.id = r.batch_ref
+        WHERE s.production_day = $day AND s.is_current = 1
+          AND EXISTS (SELECT 1 FROM flag x WHERE x.revision_ref = s.revision_ref AND x.step = s.step)
+        ORDER BY b.batch_id, s.step_order
+        """;
+
+    public const string FlagsOfDay = $"""
+        SELECT {FlagColumns}, f.revision_ref
+        FROM flag f WHERE f.production_day = $day AND f.is_current = 1 ORDER BY f.id
+        """;
+
+    /// <summary>The recipe steps that ran on a day (current revisions), in recipe and step order.</summary>
+    public const string RecipeStepsOfDay = """
+        SELECT s.recipe, s.step, min(s.step_order)
+        FROM step_result s
+        WHERE s.production_day = $day AND s.is_current = 1
+        GROUP BY s.recipe, s.step
+        ORDER BY s.recipe, 3, s.step
         """;
 
     public const string RawRowsOfRevision = "SELECT line, fields FROM raw_row WHERE revision_ref = $revision ORDER BY line";
 
-    public const string StepHistory = """
+    public const string StepHistory = StepHistorySelect + "\n" + StepHistoryOrder;
+
+    /// <summary>As <see cref="StepHistory"/>, up to and including the day <c>$day</c>.</summary>
+    public const string StepHistoryUpTo = StepHistorySelect + "\n  AND s.production_day <= $day\n" + StepHistoryOrder;
+
+    private const string StepHistorySelect = """
         SELECT b.batch_id, r.revision, s.production_day, r.last_output_at, s.yield_pct, s.actual_kg, s.theoretical_kg,
                s.pmi, s.gap_kg, s.closure_pct,
                (SELECT count(*) FROM flag f WHERE f.revision_ref = s.revision_ref AND f.step = s.step)
@@ -37,6 +78,9 @@ internal static class StoreQueries
         JOIN batch_revision r ON r.id = s.revision_ref
         JOIN batch b ON b.id = r.batch_ref
         WHERE s.recipe = $recipe AND s.step = $step AND s.is_current = 1
+        """;
+
+    private const string StepHistoryOrder = """
         ORDER BY s.production_day DESC, r.last_output_at DESC, b.batch_id DESC
         LIMIT $limit
         """;
@@ -47,7 +91,8 @@ internal static class StoreQueries
             (SELECT count(*) FROM flag WHERE production_day = $day AND is_current = 1 AND severity = 'critical'),
             (SELECT count(*) FROM flag WHERE production_day = $day AND is_current = 1 AND severity = 'major'),
             (SELECT count(*) FROM flag WHERE production_day = $day AND is_current = 1 AND severity = 'minor'),
-            (SELECT count(*) FROM flag WHERE production_day = $day AND is_current = 1 AND state <> 'closed')
+            (SELECT count(*) FROM flag WHERE production_day = $day AND is_current = 1 AND state <> 'closed'),
+            (SELECT count(*) FROM step_result WHERE production_day = $day AND is_current = 1 AND has_rows = 1)
         """;
 
     /// <summary>
@@ -56,18 +101,31 @@ internal static class StoreQueries
     /// SQLite from using the day index.
     /// </summary>
     public static string Flags(bool byDay, bool currentOnly, bool unresolvedOnly) =>
-        """
-        SELECT f.id, b.batch_id, r.revision, f.step, f.code, f.severity, f.state, f.production_day, f.message,
-               f.measured, f.limit_value, f.unit, f.subject, f.is_current
-        FROM flag f
-        JOIN batch_revision r ON r.id = f.revision_ref
-        JOIN batch b ON b.id = r.batch_ref
-        WHERE 1 = 1
-        """
+        FlagListSelect
+        + "\nWHERE 1 = 1"
         + (byDay ? " AND f.production_day = $day" : string.Empty)
         + (currentOnly ? " AND f.is_current = 1" : string.Empty)
         + (unresolvedOnly ? " AND f.state <> 'closed'" : string.Empty)
-        + """
+        + FlagListOrder;
+
+    /// <summary>
+    /// Flags of current revisions not yet closed from days before <c>$day</c>. The conditions are
+    /// those of the partial index <c>ix_flag_unresolved</c>, word for word, so that SQLite uses it.
+    /// </summary>
+    public const string UnresolvedBefore = FlagListSelect
+        + "\nWHERE f.is_current = 1 AND f.state <> 'closed' AND f.production_day < $day"
+        + FlagListOrder;
+
+    private const string FlagListSelect = """
+        SELECT f.id, b.batch_id, r.revision, f.step, f.code, f.severity, f.state, f.production_day, f.message,
+               f.measured, f.limit_value, f.unit, f.subject, f.is_current, r.recipe,
+               f.outcome, f.review_note, f.deviation_ref, f.reviewed_by, f.reviewed_at
+        FROM flag f
+        JOIN batch_revision r ON r.id = f.revision_ref
+        JOIN batch b ON b.id = r.batch_ref
+        """;
+
+    private const string FlagListOrder = """
 
         ORDER BY f.production_day,
                  CASE f.severity WHEN 'critical' THEN 0 WHEN 'major' THEN 1 ELSE 2 END,

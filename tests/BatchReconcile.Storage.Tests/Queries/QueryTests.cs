@@ -1,4 +1,5 @@
 using BatchReconcile.Records.Definitions;
+using BatchReconcile.Storage.Review;
 using BatchReconcile.Storage.Tests.Support;
 
 namespace BatchReconcile.Storage.Tests.Queries;
@@ -30,8 +31,8 @@ public sealed class QueryTests
         store.Commit([Build.File("c.csv", Build.Ingest(Build.Batch("BZ-001", productKg: 99.0), Build.Day1))]);
         Assert.Equal(["BZ-002"], store.ListFlags(Build.Day1).Select(f => f.BatchId));
 
-        // Closing belongs to the review workflow of a later issue; here the state is set directly.
-        Db.Execute(store.Connection, "UPDATE flag SET state = 'closed' WHERE production_day = '2026-11-24'");
+        var day2Flag = Assert.Single(store.ListFlags(Build.Day2)).Id;
+        Assert.True(store.ReviewFlag(day2Flag, ReviewState.Closed, "A. Reviewer", "yield within the site's accepted range", CloseOutcome.Explained).Accepted);
         Assert.Empty(store.ListFlags(Build.Day2, unresolvedOnly: true));
         Assert.Single(store.ListFlags(Build.Day2));
     }
@@ -73,8 +74,8 @@ public sealed class QueryTests
             Build.File("c.csv", Build.Ingest(Build.Batch("BZ-003"), Build.Day2)),
         ]);
 
-        Assert.Equal(new Storage.Queries.DayCounts(Build.Day1, 2, 0, 1, 1, 2), store.CountsByDay(Build.Day1));
-        Assert.Equal(new Storage.Queries.DayCounts(Build.Day2, 1, 0, 0, 0, 0), store.CountsByDay(Build.Day2));
+        Assert.Equal(new Storage.Queries.DayCounts(Build.Day1, 2, 0, 1, 1, 2, 4), store.CountsByDay(Build.Day1));
+        Assert.Equal(new Storage.Queries.DayCounts(Build.Day2, 1, 0, 0, 0, 0, 2), store.CountsByDay(Build.Day2));
         Assert.Equal(
             [("BZ-001", 2, 1), ("BZ-002", 1, 1), ("BZ-003", 1, 0)],
             store.ListBatches().Select(b => (b.BatchId, b.Revision, b.FlagCount)));

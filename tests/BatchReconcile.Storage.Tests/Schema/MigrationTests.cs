@@ -1,3 +1,4 @@
+using BatchReconcile.Storage.Review;
 using BatchReconcile.Storage.Schema;
 using BatchReconcile.Storage.Tests.Support;
 
@@ -5,7 +6,7 @@ namespace BatchReconcile.Storage.Tests.Schema;
 
 public sealed class MigrationTests
 {
-    private static readonly string[] Tables = ["ingest_log", "batch", "batch_revision", "raw_row", "step_result", "flag", "audit_event"];
+    private static readonly string[] Tables = ["ingest_log", "batch", "batch_revision", "raw_row", "step_result", "flag", "audit_event", "digest"];
 
     public static TheoryData<int> EarlierVersions()
     {
@@ -67,6 +68,30 @@ public sealed class MigrationTests
         var flag = Assert.Single(step.Flags);
         Assert.Equal(7, flag.Id);
         Assert.True(flag.IsCurrent);
+        Assert.Equal(FlagReview.Unreviewed, flag.Review);
+
+        // Version 4: the open flag of the superseded revision was closed by the system, in the trail.
+        var old = Assert.Single(store.GetBatch("OLD-001", 1)!.Flags);
+        Assert.Equal((ReviewState.Closed, CloseOutcome.Superseded, "system"), (old.Review.State, old.Review.Outcome, old.Review.By));
+        Assert.Equal("superseded by revision 2 (closed when the review trail was added to the database)", old.Review.Note);
+        var closing = Assert.Single(store.AuditTrailOf("flag:6"));
+        Assert.Equal((SeededAuditEvents(version) + 1, "system", "open", "closed"), (closing.Id, closing.Actor, closing.FromState, closing.ToState));
+
+        // The events of version 3 were linked into the hash chain in id order, their content unchanged.
+        var ingestEvents = store.AuditTrailOf("file:" + Build.Sha("old-1.csv"));
+        Assert.Equal(version >= 3 ? 1 : 0, ingestEvents.Count);
+        if (version >= 3)
+        {
+            var first = ingestEvents[0];
+            Assert.Equal((1L, "system", "ingest.stored", "2026-11-23T20:00:01.0000000Z"), (first.Id, first.Actor, first.Kind, first.At));
+            Assert.Equal(new string('0', 64), first.PreviousHash);
+            Assert.Equal(BatchReconcile.Storage.Audit.AuditCanonicalForm.Hash(first), first.Hash);
+        }
+
+        var verified = store.VerifyAudit();
+        Assert.True(verified.Intact, verified.Message);
+        Assert.Equal(SeededAuditEvents(version) + 1, verified.EntriesChecked);
+        Assert.Throws<Microsoft.Data.Sqlite.SqliteException>(() => Db.Execute(store.Connection, "UPDATE audit_event SET note = 'x' WHERE id = 1"));
 
         // The columns added by later migrations were filled from the old rows: the day and
         // step-history queries find the seeded data, and the superseded revision stays out.
@@ -81,6 +106,9 @@ public sealed class MigrationTests
         var result = Assert.Single(store.Commit([Build.File("new.csv", Build.Ingest(Build.Batch("NEW-001"), Build.Day2, Build.Flag("S2")))]));
         Assert.Equal(BatchReconcile.Storage.Ingest.IngestOutcome.Stored, result.Outcome);
         Assert.True(Assert.Single(result.Batches).FlagIds.Single() > 7, "flag ids continue after the old ones");
+        Assert.True(store.ReviewFlag(7, ReviewState.Closed, "A. Chen", "gap explained by a sampling loss", CloseOutcome.Explained).Accepted);
+        Assert.True(store.RecordDigest(Build.Day1, ["digests/2026-11-23.md"], 1, rewrite: false, "system").Recorded);
+        Assert.True(store.VerifyAudit().Intact);
     }
 
     [Fact]
@@ -102,9 +130,11 @@ public sealed class MigrationTests
         Assert.Equal("0", Db.Scalar(check, "SELECT count(*) FROM sqlite_master WHERE type = 'table'"));
     }
 
+    private static int SeededAuditEvents(int version) => version >= 3 ? 3 : 0;
+
     /// <summary>
     /// Rows as the program of that version wrote them: one batch with a superseded revision 1 and
-    /// a current revision 2, one step result and one flag each.
+    /// a current revision 2, one step result and one flag each; from version 3 their audit events.
     /// </summary>
     private static void Seed(Microsoft.Data.Sqlite.SqliteConnection connection, int version)
     {
@@ -139,6 +169,17 @@ public sealed class MigrationTests
             Db.Execute(connection, $"""
                 UPDATE flag SET production_day = '{day}', is_current = (revision_ref = 2);
                 UPDATE step_result SET recipe = '{Build.Recipe}', production_day = '{day}', is_current = (revision_ref = 2);
+                """);
+        }
+
+        if (version >= 3)
+        {
+            // What the version-3 commit wrote: one event per file and one for the revision.
+            Db.Execute(connection, $$"""
+                INSERT INTO audit_event (at, kind, subject, detail) VALUES
+                    ('2026-11-23T20:00:01.0000000Z', 'ingest.stored', 'file:{{sha1}}', '{"file":"old-1.csv","sha256":"{{sha1}}"}'),
+                    ('2026-11-24T07:00:01.0000000Z', 'batch.revision', 'batch:OLD-001', '{"batch":"OLD-001","supersededRevision":1,"revision":2,"note":"it''s "quoted""}'),
+                    ('2026-11-24T07:00:01.0000000Z', 'ingest.revision', 'file:{{sha2}}', '{"file":"old-2.csv","sha256":"{{sha2}}"}');
                 """);
         }
     }

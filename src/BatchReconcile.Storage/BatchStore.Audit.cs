@@ -1,0 +1,115 @@
+using System.Globalization;
+using BatchReconcile.Storage.Audit;
+using BatchReconcile.Storage.Sql;
+using Microsoft.Data.Sqlite;
+
+namespace BatchReconcile.Storage;
+
+public sealed partial class BatchStore
+{
+    /// <summary>
+    /// Walks the audit chain in id order (<c>audit verify</c>) and stops at the first entry that
+    /// does not verify: a gap in the ids, a previous-hash that is not the hash of the entry before,
+    /// or content that no longer gives the entry's hash. Entries missing at the end are found from
+    /// SQLite's id sequence. Reads one snapshot; the service may go on writing meanwhile.
+    /// </summary>
+    public AuditVerification VerifyAudit()
+    {
+        lock (_gate)
+        {
+            ThrowIfDisposed();
+            using var transaction = _connection.BeginTransaction(deferred: true);
+            var previousHash = AuditCanonicalForm.GenesisHash;
+            long previousId = 0;
+            long count = 0;
+            using (var walk = new PreparedCommand(_connection, transaction, $"SELECT {AuditWriter.Columns} FROM audit_event ORDER BY id"))
+            using (var reader = walk.Read())
+            {
+                while (reader.Read())
+                {
+                    var entry = AuditWriter.Read(reader);
+                    var problem = Check(entry, previousId, previousHash);
+                    if (problem is { } p)
+                    {
+                        return new AuditVerification(false, count, entry.Id, p.Problem, previousHash, p.Message);
+                    }
+
+                    previousId = entry.Id;
+                    previousHash = entry.Hash;
+                    count++;
+                }
+            }
+
+            using (var sequence = new PreparedCommand(_connection, transaction, "SELECT seq FROM sqlite_sequence WHERE name = 'audit_event'"))
+            {
+                var last = sequence.Scalar() is { } seq ? Convert.ToInt64(seq, CultureInfo.InvariantCulture) : 0;
+                if (last > previousId)
+                {
+                    var missing = previousId + 1;
+                    return new AuditVerification(false, count, missing, AuditProblem.MissingAtEnd, previousHash,
+                        $"audit entry {N(missing)} does not verify: it is missing; the trail ends at entry {N(previousId)} " +
+                        $"but ids were given up to {N(last)} (entries were deleted from the end)");
+                }
+            }
+
+            transaction.Commit();
+            return new AuditVerification(true, count, null, null, previousHash,
+                count == 0 ? "the audit trail is empty" : $"the audit trail is intact: {N(count)} entries verified, the last hash is {previousHash}");
+        }
+    }
+
+    /// <summary>The audit entries about one subject (e.g. <c>flag:17</c>), oldest first.</summary>
+    public IReadOnlyList<AuditEntry> AuditTrailOf(string subject)
+    {
+        ArgumentNullException.ThrowIfNull(subject);
+        lock (_gate)
+        {
+            ThrowIfDisposed();
+            using var query = new PreparedCommand(
+                _connection, null, $"SELECT {AuditWriter.Columns} FROM audit_event WHERE subject = $subject ORDER BY id", ("$subject", SqliteType.Text));
+            using var reader = query.Set("$subject", subject).Read();
+            var list = new List<AuditEntry>();
+            while (reader.Read())
+            {
+                list.Add(AuditWriter.Read(reader));
+            }
+
+            return list;
+        }
+    }
+
+    private static (AuditProblem Problem, string Message)? Check(AuditEntry entry, long previousId, string previousHash)
+    {
+        var id = N(entry.Id);
+        if (entry.Id != previousId + 1)
+        {
+            var what = previousId == 0
+                ? $"the trail starts at entry {id}, so entries 1 to {N(entry.Id - 1)} are missing"
+                : entry.Id - previousId == 2
+                    ? $"it follows entry {N(previousId)}, so entry {N(previousId + 1)} is missing"
+                    : $"it follows entry {N(previousId)}, so entries {N(previousId + 1)} to {N(entry.Id - 1)} are missing";
+            return (AuditProblem.GapInIds, $"audit entry {id} does not verify: gap in ids: {what}");
+        }
+
+        if (!string.Equals(entry.PreviousHash, previousHash, StringComparison.Ordinal))
+        {
+            var before = previousId == 0 ? "the start of the chain (64 zeros)" : $"entry {N(previousId)}'s hash {previousHash}";
+            return (AuditProblem.PreviousHashLinkBroken,
+                $"audit entry {id} does not verify: previous-hash link broken: it holds {Short(entry.PreviousHash)} where {before} was expected");
+        }
+
+        var computed = AuditCanonicalForm.Hash(entry);
+        if (!string.Equals(entry.Hash, computed, StringComparison.Ordinal))
+        {
+            return (AuditProblem.ContentHashMismatch,
+                $"audit entry {id} does not verify: content hash mismatch: its content gives {computed} but it holds {Short(entry.Hash)}; " +
+                "the entry was changed after it was written");
+        }
+
+        return null;
+    }
+
+    private static string Short(string hash) => hash.Length == 0 ? "no hash" : hash;
+
+    private static string N(long value) => value.ToString(CultureInfo.InvariantCulture);
+}

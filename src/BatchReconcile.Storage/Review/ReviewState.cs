@@ -1,0 +1,9 @@
+namespace BatchReconcile.Storage.Review;
+
+/// <summary>Where a flag stands in QA review (text forms <c>open</c>, <c>in-review</c>, <c>closed</c>).</summary>
+public enum ReviewState
+{
+    Open,
+    InReview,
+    Closed,
+}
