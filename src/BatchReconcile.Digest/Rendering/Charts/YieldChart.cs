@@ -1,0 +1,94 @@
+using BatchReconcile.Digest.Model;
+
+namespace BatchReconcile.Digest.Rendering.Charts;
+
+/// <summary>One recipe step's yields over its last batches, with its limits as a band; the digest day's batches as filled squares.</summary>
+internal static class YieldChart
+{
+    private const double Width = 372;
+    private const double Height = 200;
+    private const double PlotLeft = 48;
+    private const double PlotRight = 318;
+    private const double PlotTop = 12;
+    private const double PlotBottom = 150;
+
+    public static string Draw(RecipeStepYields step)
+    {
+        var values = step.History.Where(p => p.YieldPct is not null).Select(p => p.YieldPct!.Value).ToList();
+        var low = Math.Min(step.MinYieldPct, values.Count > 0 ? values.Min() : step.MinYieldPct);
+        var high = Math.Max(step.MaxYieldPct, values.Count > 0 ? values.Max() : step.MaxYieldPct);
+        var pad = Math.Max((high - low) * 0.1, 0.5);
+        var y = Axis.Over(low - pad, high + pad, PlotBottom, PlotTop, 4);
+
+        var title = $"Yields of recipe {step.Recipe}, step {step.Step} ({step.StepName}) over the last {step.History.Count} batches, "
+            + $"limits {DigestText.Pct(step.MinYieldPct)} to {DigestText.Pct(step.MaxYieldPct)} %";
+        var svg = new Svg(Width, Height, title,
+            "Grey band: the step's yield limits. Hollow circles: earlier batches. Filled squares: batches of the digest's day.");
+
+        svg.Rect(PlotLeft, y.Map(step.MaxYieldPct), PlotRight - PlotLeft, y.Map(step.MinYieldPct) - y.Map(step.MaxYieldPct), Svg.Faint);
+        svg.Line(PlotLeft, y.Map(step.MaxYieldPct), PlotRight, y.Map(step.MaxYieldPct), Svg.Mid, 1, dashed: true);
+        svg.Line(PlotLeft, y.Map(step.MinYieldPct), PlotRight, y.Map(step.MinYieldPct), Svg.Mid, 1, dashed: true);
+        // Limit labels sit in the right margin so they never cover a point.
+        svg.Text(PlotRight + 4, y.Map(step.MaxYieldPct) + 3, "max " + DigestText.Pct(step.MaxYieldPct), "start", 9, Svg.Mid);
+        svg.Text(PlotRight + 4, y.Map(step.MinYieldPct) + 3, "min " + DigestText.Pct(step.MinYieldPct), "start", 9, Svg.Mid);
+
+        foreach (var tick in y.Ticks())
+        {
+            var ty = y.Map(tick);
+            svg.Line(PlotLeft - 4, ty, PlotLeft, ty, Svg.Mid);
+            svg.Text(PlotLeft - 6, ty + 3.5, DigestText.Number(tick, y.Decimals), "end", 9.5, Svg.Mid);
+        }
+
+        svg.Line(PlotLeft, PlotTop, PlotLeft, PlotBottom, Svg.Mid);
+        svg.Line(PlotLeft, PlotBottom, PlotRight, PlotBottom, Svg.Mid);
+        svg.Text(12, (PlotTop + PlotBottom) / 2, "yield %", "middle", 10.5, Svg.Ink, rotate: -90);
+        svg.Text((PlotLeft + PlotRight) / 2, PlotBottom + 30, "batches, oldest to newest", "middle", 10.5);
+        if (step.History.Count > 0)
+        {
+            svg.Text(PlotLeft, PlotBottom + 14, DigestText.Date(step.History[0].Day), "start", 9, Svg.Mid);
+            svg.Text(PlotRight, PlotBottom + 14, DigestText.Date(step.History[^1].Day), "end", 9, Svg.Mid);
+        }
+        else
+        {
+            svg.Text((PlotLeft + PlotRight) / 2, (PlotTop + PlotBottom) / 2, "no batches yet", "middle", 10, Svg.Mid);
+        }
+
+        var slot = (PlotRight - PlotLeft) / Math.Max(step.History.Count, 1);
+        double X(int i) => PlotLeft + (slot * (i + 0.5));
+
+        // The line breaks where a yield could not be computed, so a gap is never drawn as a trend.
+        var run = new List<(double X, double Y)>();
+        for (var i = 0; i <= step.History.Count; i++)
+        {
+            if (i < step.History.Count && step.History[i].YieldPct is { } v)
+            {
+                run.Add((X(i), y.Map(v)));
+                continue;
+            }
+
+            svg.Polyline(run, Svg.Mid);
+            run.Clear();
+        }
+
+        for (var i = 0; i < step.History.Count; i++)
+        {
+            var point = step.History[i];
+            if (point.YieldPct is not { } v)
+            {
+                continue;
+            }
+
+            var tooltip = $"{point.BatchId} ({DigestText.Date(point.Day)}): {DigestText.Pct(v)} %";
+            if (point.OnDigestDay)
+            {
+                svg.Rect(X(i) - 4, y.Map(v) - 4, 8, 8, Svg.Ink, tooltip: tooltip);
+            }
+            else
+            {
+                svg.Circle(X(i), y.Map(v), 3, "#ffffff", Svg.Accent, tooltip);
+            }
+        }
+
+        return svg.ToMarkup();
+    }
+}
