@@ -1,3 +1,4 @@
+using BatchReconcile.Reconciliation.Flags;
 using System.Globalization;
 using BatchReconcile.Storage.Audit;
 using BatchReconcile.Storage.Review;

@@ -1,3 +1,4 @@
+using BatchReconcile.Reconciliation.Flags;
 namespace BatchReconcile.Digest.Model;
 
 /// <summary>A flag's review state, with the outcome when it is closed.</summary>
@@ -13,19 +14,6 @@ public sealed record ReviewStatus(ReviewState State, CloseOutcome? Outcome = nul
 
     public static ReviewStatus Closed(CloseOutcome outcome) => new(ReviewState.Closed, outcome);
 
-    /// <summary>The text shown in the digest, e.g. "open", "in-review", "closed: deviation".</summary>
-    public string ToText() => State switch
-    {
-        ReviewState.Open => "open",
-        ReviewState.InReview => "in-review",
-        ReviewState.Closed => "closed: " + Outcome switch
-        {
-            CloseOutcome.Explained => "explained",
-            CloseOutcome.Deviation => "deviation",
-            CloseOutcome.Corrected => "corrected",
-            CloseOutcome.Superseded => "superseded",
-            _ => throw new InvalidOperationException($"Unknown close outcome {Outcome}."),
-        },
-        _ => throw new InvalidOperationException($"Unknown review state {State}."),
-    };
+    /// <summary>"open", "in-review" or "closed: explained" (the outcome after the state).</summary>
+    public string ToText() => Outcome is { } outcome ? $"{State.ToText()}: {outcome.ToText()}" : State.ToText();
 }

@@ -1,3 +1,4 @@
+using BatchReconcile.Reconciliation.Flags;
 using BatchReconcile.Records.Definitions;
 using BatchReconcile.Storage.Review;
 

@@ -1,3 +1,4 @@
+using BatchReconcile.Reconciliation.Flags;
 namespace BatchReconcile.Storage.Review;
 
 /// <summary>A flag's review as it stands (its history is in the audit trail).</summary>

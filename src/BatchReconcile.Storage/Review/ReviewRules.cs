@@ -1,3 +1,4 @@
+using BatchReconcile.Reconciliation.Flags;
 namespace BatchReconcile.Storage.Review;
 
 /// <summary>Which review changes are allowed, and the checks on what a reviewer types.</summary>

@@ -1,3 +1,4 @@
+using BatchReconcile.Reconciliation.Flags;
 using BatchReconcile.Storage.Audit;
 using BatchReconcile.Storage.Review;
 using Microsoft.Data.Sqlite;

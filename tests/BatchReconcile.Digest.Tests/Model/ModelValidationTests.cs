@@ -1,3 +1,4 @@
+using BatchReconcile.Reconciliation.Flags;
 using BatchReconcile.Digest.Model;
 using BatchReconcile.Digest.Tests.Support;
 using BatchReconcile.Records.Definitions;

@@ -1,3 +1,4 @@
+using BatchReconcile.Reconciliation.Flags;
 using System.Security.Cryptography;
 using System.Text;
 using BatchReconcile.Storage.Audit;

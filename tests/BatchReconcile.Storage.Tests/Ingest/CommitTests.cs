@@ -1,3 +1,4 @@
+using BatchReconcile.Reconciliation.Flags;
 using BatchReconcile.Reconciliation.Outcomes;
 using BatchReconcile.Records.Definitions;
 using BatchReconcile.Storage.Ingest;
@@ -107,7 +108,7 @@ public sealed class CommitTests
         Assert.Equal(Build.ProcessedAt, old.SupersededAt);
         var oldFlag = Assert.Single(old.Flags);
         // An open flag of the replaced revision is closed by the system (see ReviewTests for the trail).
-        Assert.Equal((oldFlagId, "closed", Storage.Review.CloseOutcome.Superseded, false), (oldFlag.Id, oldFlag.State, oldFlag.Review.Outcome, oldFlag.IsCurrent));
+        Assert.Equal((oldFlagId, "closed", Reconciliation.Flags.CloseOutcome.Superseded, false), (oldFlag.Id, oldFlag.State, oldFlag.Review.Outcome, oldFlag.IsCurrent));
         Assert.Equal(10, store.GetRawRows("BZ-001", 1).Count);
 
         Assert.Equal(batch.FlagIds, store.ListFlags().Select(f => f.Id));

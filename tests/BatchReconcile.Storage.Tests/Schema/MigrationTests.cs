@@ -1,3 +1,4 @@
+using BatchReconcile.Reconciliation.Flags;
 using BatchReconcile.Storage.Review;
 using BatchReconcile.Storage.Schema;
 using BatchReconcile.Storage.Tests.Support;

@@ -1,4 +1,4 @@
-namespace BatchReconcile.Storage.Review;
+namespace BatchReconcile.Reconciliation.Flags;
 
 /// <summary>Why a flag was closed (text forms <c>explained</c>, <c>deviation</c>, <c>corrected</c>, <c>superseded</c>).</summary>
 public enum CloseOutcome

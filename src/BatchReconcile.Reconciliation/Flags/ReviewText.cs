@@ -1,6 +1,7 @@
+using BatchReconcile.Reconciliation.Flags;
 using System.Diagnostics.CodeAnalysis;
 
-namespace BatchReconcile.Storage.Review;
+namespace BatchReconcile.Reconciliation.Flags;
 
 /// <summary>The text forms of review states and close outcomes, as stored, printed and typed on the command line.</summary>
 public static class ReviewText
@@ -47,10 +48,10 @@ public static class ReviewText
         return outcome is not null;
     }
 
-    internal static ReviewState ParseStoredState(string text) =>
+    public static ReviewState ParseStoredState(string text) =>
         TryParseState(text, out var state) ? state.Value : throw new InvalidDataException($"Unknown review state '{text}' in the database.");
 
-    internal static CloseOutcome? ParseStoredOutcome(string? text) =>
+    public static CloseOutcome? ParseStoredOutcome(string? text) =>
         text is null ? null
         : TryParseOutcome(text, out var outcome) ? outcome
         : throw new InvalidDataException($"Unknown close outcome '{text}' in the database.");
