@@ -18,6 +18,9 @@ public static class CommandLine
         root.Subcommands.Add(IngestCommand.Create(globals, stdout, stderr));
         root.Subcommands.Add(CheckCommand.Create(globals, stdout, stderr));
         root.Subcommands.Add(BatchesCommand.Create(globals, stdout));
+        root.Subcommands.Add(DigestCommand.Create(globals, stdout));
+        root.Subcommands.Add(FlagsCommand.Create(globals, stdout));
+        root.Subcommands.Add(AuditCommand.Create(globals, stdout, stderr));
         root.Subcommands.Add(DemoCommand.Create(globals, stdout));
 
         var parsed = root.Parse(args);

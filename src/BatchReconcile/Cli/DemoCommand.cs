@@ -1,5 +1,6 @@
 using System.CommandLine;
 using System.Globalization;
+using BatchReconcile.Digests;
 using BatchReconcile.Hosting;
 using BatchReconcile.Intake.Inbox;
 using BatchReconcile.Pipeline;
@@ -68,7 +69,17 @@ public static class DemoCommand
             WriteFiles(console, outcomes);
             WriteBatches(console, services.GetRequiredService<BatchStore>());
             WriteFlags(console, services.GetRequiredService<BatchStore>());
+            var digest = WriteLastDayDigest(services);
             WhereEverythingWent(console, folders, outcomes);
+            if (digest is not null)
+            {
+                console.WriteLine(string.Create(Inv, $"Digest of the last production day, {digest.Day:yyyy-MM-dd} ({digest.Flags} flags):"));
+                foreach (var file in digest.Files)
+                {
+                    console.WriteLine($"  {file}");
+                }
+            }
+
             console.WriteLine("The figures support, not replace, the site's deviation procedure and qualified review.");
             return ExitCodes.Success;
         });
@@ -144,6 +155,15 @@ public static class DemoCommand
 
         console.Write(table);
         console.WriteLine();
+    }
+
+    /// <summary>The scenario ends with the digest of its last production day.</summary>
+    private static DigestWriteResult? WriteLastDayDigest(IServiceProvider services)
+    {
+        var batches = services.GetRequiredService<BatchStore>().ListBatches();
+        return batches.Count == 0
+            ? null
+            : services.GetRequiredService<DigestWriter>().Write(batches.Max(b => b.ProductionDay), rewrite: false, by: "demo");
     }
 
     private static void WhereEverythingWent(IAnsiConsole console, DataFolders folders, IReadOnlyList<FileOutcome> outcomes)

@@ -1,3 +1,4 @@
+using BatchReconcile.Digests;
 using BatchReconcile.Intake.Archive;
 using BatchReconcile.Pipeline;
 using BatchReconcile.Reconciliation.Flags;
@@ -75,12 +76,20 @@ public static class AppHost
         });
         builder.Services.AddSingleton(sp => sp.GetRequiredService<IOptions<ReconciliationSettings>>().Value);
         builder.Services.AddSingleton<IngestPipeline>();
+        builder.Services.AddSingleton(sp =>
+        {
+            var s = sp.GetRequiredService<IOptions<SiteOptions>>().Value;
+            return new DigestSchedule(sp.GetRequiredService<ProductionDayCalendar>(), s.GetDigestTime(), s.DigestCatchUpDays);
+        });
+        builder.Services.AddSingleton<DigestWriter>();
 
         builder.Services.AddSerilog((_, logger) => logger.ReadFrom.Configuration(builder.Configuration));
         if (service)
         {
             builder.Services.AddSystemd();
             builder.Services.AddHostedService<InboxService>();
+            builder.Services.AddSingleton<DigestService>();
+            builder.Services.AddHostedService(sp => sp.GetRequiredService<DigestService>());
             builder.Services.Configure<HostOptions>(o => o.ShutdownTimeout = TimeSpan.FromSeconds(60));
         }
 

@@ -49,6 +49,8 @@ public sealed class SiteOptions : IValidatableObject
     /// <remarks>Methods, not properties: the configuration binder reads complex properties while binding.</remarks>
     public TimeZoneInfo GetZone() => TimeZoneInfo.FindSystemTimeZoneById(TimeZone);
 
+    public TimeOnly GetDigestTime() => TimeOnly.ParseExact(DigestTime, "HH:mm", CultureInfo.InvariantCulture);
+
     public TimeOnly GetDayStart() => TimeOnly.ParseExact(ProductionDayStart, "HH:mm", CultureInfo.InvariantCulture);
 
     public IEnumerable<ValidationResult> Validate(ValidationContext validationContext)

@@ -1,0 +1,86 @@
+using System.CommandLine;
+using System.Globalization;
+using BatchReconcile.Reconciliation.Flags;
+using BatchReconcile.Records.Definitions;
+using BatchReconcile.Storage;
+using Microsoft.Extensions.DependencyInjection;
+
+namespace BatchReconcile.Cli;
+
+/// <summary><c>flags list</c> and <c>flags review</c>: the QA review of flags.</summary>
+public static class FlagsCommand
+{
+    private static readonly CultureInfo Inv = CultureInfo.InvariantCulture;
+
+    public static Command Create(GlobalOptions globals, TextWriter stdout)
+    {
+        return new Command("flags", "List flags and record their review") { List(globals, stdout), Review(globals, stdout) };
+    }
+
+    private static Command List(GlobalOptions globals, TextWriter stdout)
+    {
+        var open = new Option<bool>("--open") { Description = "Only flags not closed yet (open or in review)" };
+        var day = DigestCommand.DayOption("Only flags of this production day (YYYY-MM-DD)");
+        var json = new Option<bool>("--json") { Description = "Print one JSON document on stdout" };
+        var command = new Command("list", "Flags of current batch revisions, oldest day first") { open, day, json };
+        command.SetAction(parse => HostedCommand.Run(parse, globals, service: false, host =>
+        {
+            var flags = host.Services.GetRequiredService<BatchStore>()
+                .ListFlags(DigestCommand.ParseDay(parse.GetValue(day)), unresolvedOnly: parse.GetValue(open));
+            if (parse.GetValue(json))
+            {
+                JsonOutput.Write(stdout, flags.Select(f => new FlagJson(
+                    f.Id, f.BatchId, f.Revision, f.Step, f.Code.ToText(), f.Severity.ToText(), f.Review.State.ToText(),
+                    f.Review.Outcome?.ToText(), f.ProductionDay.ToString("yyyy-MM-dd", Inv), f.Message)).ToList());
+                return ExitCodes.Success;
+            }
+
+            foreach (var f in flags)
+            {
+                var state = f.Review.Outcome is { } outcome ? $"closed ({outcome.ToText()})" : f.Review.State.ToText();
+                stdout.WriteLine(string.Create(Inv, $"#{f.Id} {f.ProductionDay:yyyy-MM-dd} {f.Severity.ToText(),-8} {f.BatchId} rev {f.Revision} {f.Step} {f.Code.ToText()} [{state}]"));
+                stdout.WriteLine($"    {f.Message}");
+            }
+
+            stdout.WriteLine(string.Create(Inv, $"{flags.Count} flag(s)"));
+            return ExitCodes.Success;
+        }));
+        return command;
+    }
+
+    private static Command Review(GlobalOptions globals, TextWriter stdout)
+    {
+        var id = new Argument<long>("FLAG_ID") { Description = "The flag's number, as flags list shows it" };
+        var state = new Option<string>("--state") { Description = "in-review or closed", Required = true };
+        state.AcceptOnlyFromAmong("in-review", "closed");
+        var by = new Option<string>("--by") { Description = "Reviewer's name (free text)", Required = true };
+        var note = new Option<string>("--note") { Description = "What was found or decided", Required = true };
+        var outcome = new Option<string?>("--outcome") { Description = "When closing: explained, deviation or corrected" };
+        outcome.AcceptOnlyFromAmong("explained", "deviation", "corrected");
+        var deviation = new Option<string?>("--deviation") { Description = "Deviation reference (needed with --outcome deviation)" };
+        var command = new Command("review", "Move a flag to in-review or closed, with who, why and (when closing) the outcome")
+        {
+            id, state, by, note, outcome, deviation,
+        };
+        command.SetAction(parse => HostedCommand.Run(parse, globals, service: false, host =>
+        {
+            ReviewText.TryParseState(parse.GetRequiredValue(state), out var to);
+            CloseOutcome? closeOutcome = ReviewText.TryParseOutcome(parse.GetValue(outcome), out var parsed) ? parsed : null;
+            var store = host.Services.GetRequiredService<BatchStore>();
+            var flagId = parse.GetValue(id);
+            var result = store.ReviewFlag(flagId, to!.Value, parse.GetRequiredValue(by), parse.GetRequiredValue(note), closeOutcome, parse.GetValue(deviation));
+            if (!result.Accepted)
+            {
+                throw new UsageException($"flag {flagId}: {result.Reason}");
+            }
+
+            var review = result.Review!;
+            var detail = review.Outcome is { } o ? $" ({o.ToText()}{(review.DeviationRef is { } r ? $", {r}" : "")})" : string.Empty;
+            stdout.WriteLine(string.Create(Inv, $"flag {flagId}: {review.State.ToText()}{detail}, by {review.By} at {review.At:yyyy-MM-ddTHH:mm:ssZ}; audit entry {result.AuditId}"));
+            return ExitCodes.Success;
+        }));
+        return command;
+    }
+
+    private sealed record FlagJson(long Id, string Batch, int Revision, string Step, string Code, string Severity, string State, string? Outcome, string Day, string Message);
+}
