@@ -27,6 +27,7 @@ public class QuarantineTests
         { "decimal comma in assay", Benzamide, 4, "assay_pct", "\"99,4\"", "99,4", "comma" },
         { "unknown material", Benzamide, 4, "material", "BNZ", "BNZ", "unknown material" },
         { "unknown recipe", Benzamide, 4, "recipe", "NBB-510", "NBB-510", "unknown recipe" },
+        { "one batch under two recipes", Benzamide, 4, "recipe", "PPZ-220", "PPZ-220", "a batch has one recipe" },
         { "unknown recipe version", Benzocaine, 2, "recipe_version", "7", "7", "no version 7" },
         { "unknown step of a two-step recipe", Benzocaine, 2, "step", "S3", "S3", "no step 'S3'" },
         { "unknown step of a one-step recipe", Benzamide, 4, "step", "S2", "S2", "no step 'S2'" },
