@@ -23,7 +23,8 @@ public static class AppHost
     /// <param name="service">True for <c>run</c>: the inbox service is added and console logging is at the configured level.
     /// One-shot commands log warnings and above to the console (stderr) and everything to the log file.</param>
     /// <param name="quietConsole">Keep the console to errors (the demo prints its own summary).</param>
-    public static IHost Build(AppContextOptions context, bool service, bool quietConsole = false)
+    /// <param name="time">The clock; tests pass a fake one.</param>
+    public static IHost Build(AppContextOptions context, bool service, bool quietConsole = false, TimeProvider? time = null)
     {
         var settingsFile = Path.Combine(context.ConfigDirectory, "appsettings.json");
         if (!File.Exists(settingsFile))
@@ -44,7 +45,7 @@ public static class AppHost
         builder.Configuration.AddInMemoryCollection(LoggingOverrides(builder.Configuration, folders, service ? null : quietConsole ? "Error" : "Warning"));
 
         builder.Services.AddSingleton(context);
-        builder.Services.AddSingleton(TimeProvider.System);
+        builder.Services.AddSingleton(time ?? TimeProvider.System);
         builder.Services.AddOptions<SiteOptions>().BindConfiguration(SiteOptions.Section).ValidateDataAnnotations().ValidateOnStart();
         builder.Services.AddOptions<IntakeOptions>().BindConfiguration(IntakeOptions.Section).ValidateDataAnnotations().ValidateOnStart();
         builder.Services.AddOptions<StoreSettings>().BindConfiguration("Storage").ValidateOnStart();
