@@ -1,0 +1,144 @@
+using System.Diagnostics;
+using System.Text.Json;
+using BatchReconcile.Cli.Tests.Support;
+
+namespace BatchReconcile.Cli.Tests.Review;
+
+/// <summary>
+/// The QA review trail through the real program: flags list, flags review (allowed and refused
+/// transitions), audit verify before and after the audit table is altered with the sqlite3 shell,
+/// and digest --day. Each test runs the demo scenario into its own data folder.
+/// </summary>
+public sealed class ReviewTrailTests : IDisposable
+{
+    private readonly TempFolder _temp = new();
+
+    private string Data => _temp.Sub("data");
+
+    [Fact]
+    public async Task A_flag_goes_from_open_to_in_review_to_closed_and_the_trail_verifies()
+    {
+        var id = await FirstFlagOf("2026-11-24");
+
+        await Ok("flags", "review", id, "--state", "in-review", "--by", "A. Chen", "--note", "checking the TEA charge record");
+        var closed = await Ok("flags", "review", id, "--state", "closed", "--by", "A. Chen", "--note", "second drum charged late", "--outcome", "explained");
+
+        Assert.Contains("closed (explained)", closed.Stdout);
+        var open = await Ok("flags", "list", "--open", "--json");
+        Assert.DoesNotContain(JsonDocument.Parse(open.Stdout).RootElement.EnumerateArray(), f => f.GetProperty("id").GetInt64().ToString(System.Globalization.CultureInfo.InvariantCulture) == id);
+        var verify = await Ok("audit", "verify");
+        Assert.Contains("audit trail intact", verify.Stdout);
+    }
+
+    [Theory]
+    // Closing needs an outcome.
+    [InlineData(new[] { "--state", "closed", "--by", "Q", "--note", "n" }, "outcome")]
+    // The outcome deviation needs its reference.
+    [InlineData(new[] { "--state", "closed", "--by", "Q", "--note", "n", "--outcome", "deviation" }, "--deviation")]
+    // A note is always needed.
+    [InlineData(new[] { "--state", "in-review", "--by", "Q", "--note", " " }, "note")]
+    public async Task A_refused_review_exits_2_saying_why_and_changes_nothing(string[] options, string why)
+    {
+        var id = await FirstFlagOf("2026-11-24");
+
+        var result = await Run(["flags", "review", id, .. options]);
+
+        Assert.Equal(2, result.ExitCode);
+        Assert.Contains(why, result.Stderr);
+        Assert.Single(result.Stderr.TrimEnd().Split('\n'));
+        var flag = JsonDocument.Parse((await Ok("flags", "list", "--day", "2026-11-24", "--json")).Stdout).RootElement.EnumerateArray()
+            .Single(f => f.GetProperty("id").GetInt64().ToString(System.Globalization.CultureInfo.InvariantCulture) == id);
+        Assert.Equal("open", flag.GetProperty("state").GetString());
+    }
+
+    [Fact]
+    public async Task Closing_a_closed_flag_is_refused_and_a_deviation_keeps_its_reference()
+    {
+        var id = await FirstFlagOf("2026-11-25");
+        await Ok("flags", "review", id, "--state", "closed", "--by", "B. Osei", "--note", "wet cake", "--outcome", "deviation", "--deviation", "DEV-2026-0412");
+
+        var again = await Run(["flags", "review", id, "--state", "closed", "--by", "B. Osei", "--note", "again", "--outcome", "explained"]);
+
+        Assert.Equal(2, again.ExitCode);
+        Assert.Contains("already closed", again.Stderr);
+        var list = await Ok("flags", "list", "--day", "2026-11-25");
+        Assert.Contains("closed (deviation)", list.Stdout);
+    }
+
+    [Fact]
+    public async Task Audit_verify_fails_naming_the_entry_after_a_row_is_altered_with_the_sqlite3_shell()
+    {
+        var id = await FirstFlagOf("2026-11-24");
+        await Ok("flags", "review", id, "--state", "in-review", "--by", "A. Chen", "--note", "looking");
+        var entry = Scalar("SELECT max(id) FROM audit_event WHERE subject = 'flag:" + id + "'");
+
+        // Someone with file access drops the append-only trigger and rewrites the note.
+        Sqlite3($"DROP TRIGGER IF EXISTS audit_event_no_update; UPDATE audit_event SET note = 'nothing to see' WHERE id = {entry};");
+        var result = await Run(["audit", "verify"]);
+
+        Assert.Equal(1, result.ExitCode);
+        Assert.Contains($"entry {entry}", result.Stderr);
+    }
+
+    [Fact]
+    public async Task Digest_of_a_day_writes_three_files_and_a_rewrite_is_recorded()
+    {
+        await Ok("demo", "--samples", Path.Combine(RepoPaths.Root, "sample-data", "inbox"));
+
+        var first = await Ok("digest", "--day", "2026-11-25", "--json");
+        var second = await Ok("digest", "--day", "2026-11-25", "--json", "--by", "A. Chen");
+
+        using var doc = JsonDocument.Parse(second.Stdout);
+        Assert.Equal("2026-11-25", doc.RootElement.GetProperty("day").GetString());
+        var files = doc.RootElement.GetProperty("files").EnumerateArray().Select(f => f.GetString()!).ToList();
+        Assert.Equal(new[] { ".html", ".md", ".csv" }, files.Select(Path.GetExtension));
+        Assert.All(files, f => Assert.True(new FileInfo(f).Length > 0));
+        // sample-data/README.md: three flags on the 25th (NB-0163 balance-gap, PZ-0231 yield-over-theory, BZ-0413 yield-low).
+        Assert.Equal(3, doc.RootElement.GetProperty("flags").GetInt32());
+        Assert.Equal(1, Scalar("SELECT count(*) FROM audit_event WHERE kind = 'digest.rewritten'"));
+        Assert.NotEqual(string.Empty, first.Stdout);
+    }
+
+    private async Task<string> FirstFlagOf(string day)
+    {
+        await Ok("demo", "--samples", Path.Combine(RepoPaths.Root, "sample-data", "inbox"));
+        var list = await Ok("flags", "list", "--day", day, "--json");
+        return JsonDocument.Parse(list.Stdout).RootElement.EnumerateArray().First().GetProperty("id").GetInt64()
+            .ToString(System.Globalization.CultureInfo.InvariantCulture);
+    }
+
+    private async Task<ProgramResult> Ok(params string[] args)
+    {
+        var result = await Run(args);
+        Assert.True(result.ExitCode == 0, $"batchreconcile {string.Join(' ', args)} exited {result.ExitCode}: {result.Stderr}");
+        return result;
+    }
+
+    private Task<ProgramResult> Run(string[] args) => ProgramRunner.RunAsync([.. args, "--data", Data]);
+
+    private long Scalar(string sql) => new DataRoot(Data).Scalar(sql);
+
+    private void Sqlite3(string sql)
+    {
+        var start = new ProcessStartInfo("sqlite3") { RedirectStandardError = true, UseShellExecute = false };
+        start.ArgumentList.Add(Path.Combine(Data, "batchreconcile.db"));
+        start.ArgumentList.Add(sql);
+        Process process;
+        try
+        {
+            process = Process.Start(start)!;
+        }
+        catch (System.ComponentModel.Win32Exception e)
+        {
+            throw new InvalidOperationException("the sqlite3 shell is needed for this test: apt-get install sqlite3", e);
+        }
+
+        using (process)
+        {
+            process.WaitForExit();
+            Assert.True(process.ExitCode == 0, process.StandardError.ReadToEnd());
+        }
+    }
+
+    public void Dispose() => _temp.Dispose();
+}
