@@ -3,19 +3,22 @@ namespace BatchReconcile.Records.Definitions;
 /// <summary>A problem in a process-definition file, located as precisely as it can be.</summary>
 public sealed record DefinitionError(string File, string? Recipe, string? Step, string Message)
 {
-    public override string ToString()
+    public override string ToString() => Describe(File, Recipe, Step, Message);
+
+    /// <summary>"file, recipe R, step S: message": how definition problems and notes name their place.</summary>
+    public static string Describe(string file, string? recipe, string? step, string message)
     {
-        var where = File;
-        if (Recipe is not null)
+        var where = file;
+        if (recipe is not null)
         {
-            where += $", recipe {Recipe}";
+            where += $", recipe {recipe}";
         }
 
-        if (Step is not null)
+        if (step is not null)
         {
-            where += $", step {Step}";
+            where += $", step {step}";
         }
 
-        return $"{where}: {Message}";
+        return $"{where}: {message}";
     }
 }

@@ -6,19 +6,5 @@ namespace BatchReconcile.Records.Definitions.Loading;
 /// </summary>
 public sealed record DefinitionNote(string File, string? Recipe, string? Step, string Message)
 {
-    public override string ToString()
-    {
-        var where = File;
-        if (Recipe is not null)
-        {
-            where += $", recipe {Recipe}";
-        }
-
-        if (Step is not null)
-        {
-            where += $", step {Step}";
-        }
-
-        return $"{where}: {Message}";
-    }
+    public override string ToString() => DefinitionError.Describe(File, Recipe, Step, Message);
 }
