@@ -60,15 +60,31 @@ public sealed class IngestPipeline(
             return new PreparedFile(file, FileIngest.Accepted(file.Name, sha256, file.ArrivedAt, []), known);
         }
 
-        var read = ExportReader.Read(file.FullPath, file.Name, catalog.Current);
-        if (!read.IsValid)
+        try
         {
-            var report = QuarantineReport.Render(file.Name, sha256, read.Errors, time.GetUtcNow());
-            return new PreparedFile(file, FileIngest.Quarantined(file.Name, sha256, file.ArrivedAt, read.Errors, report), known);
-        }
+            var read = ExportReader.Read(file.FullPath, file.Name, catalog.Current);
+            if (!read.IsValid)
+            {
+                return Quarantine(file, sha256, read.Errors, known);
+            }
 
-        var batches = read.Batches.Select(b => Reconcile(b, file.ArrivedAt)).ToList();
-        return new PreparedFile(file, FileIngest.Accepted(file.Name, sha256, file.ArrivedAt, batches), known);
+            var batches = read.Batches.Select(b => Reconcile(b, file.ArrivedAt)).ToList();
+            return new PreparedFile(file, FileIngest.Accepted(file.Name, sha256, file.ArrivedAt, batches), known);
+        }
+        catch (Exception e) when (e is not (IOException or UnauthorizedAccessException or OperationCanceledException))
+        {
+            // A fault of the program on one file must not stop the others: the file goes to quarantine
+            // untouched, with the reason, and nothing of it is stored.
+            logger.LogError(e, "{File} could not be reconciled because of an internal error; quarantined", file.Name);
+            var error = new ExportError(file.Name, 0, string.Empty, string.Empty, $"internal error while reconciling ({e.GetType().Name}: {e.Message}); nothing was stored, please report this file");
+            return Quarantine(file, sha256, [error], known);
+        }
+    }
+
+    private PreparedFile Quarantine(ReadyFile file, string sha256, IReadOnlyList<ExportError> errors, KnownFile? known)
+    {
+        var report = QuarantineReport.Render(file.Name, sha256, errors, time.GetUtcNow());
+        return new PreparedFile(file, FileIngest.Quarantined(file.Name, sha256, file.ArrivedAt, errors, report), known);
     }
 
     /// <summary>Reads and reconciles one file without storing or moving anything (the <c>check</c> command).</summary>
