@@ -29,9 +29,14 @@ public static class HtmlDigestRenderer
         th, td { text-align: left; vertical-align: top; padding: .25rem .4rem; border-bottom: 1px solid #d9d9d9; }
         th { border-bottom: 1.5px solid #6b6b6b; font-weight: 600; }
         td.num, th.num { text-align: right; white-space: nowrap; }
-        td.code { font-family: "DejaVu Sans Mono", Consolas, monospace; font-size: 9pt; overflow-wrap: anywhere; }
-        td.msg { min-width: 14rem; }
+        td.code { font-family: "DejaVu Sans Mono", Consolas, monospace; font-size: 9pt; white-space: nowrap; }
+        td.msg { min-width: 12rem; }
         td.short { white-space: nowrap; }
+        /* Batch ids and flag codes are read and searched as one word, so they never break inside (a hyphen is no
+           place to break "balance-surplus"); the revision goes under the id, and the message and the measured
+           value take the remaining width. Balanced lines keep "167.5 kg" together when "against" has to wrap. */
+        .rev { display: block; }
+        td.measure { white-space: normal; text-wrap: balance; min-width: 5.5rem; }
         .sev { white-space: nowrap; }
         .sev::before { font-size: 8pt; letter-spacing: 1px; margin-right: .35rem; color: #3d3d3d; }
         .sev-critical::before { content: "\25A0\25A0\25A0"; }
@@ -56,6 +61,9 @@ public static class HtmlDigestRenderer
           tr, .step header, dl.balance { break-inside: avoid; page-break-inside: avoid; }
           thead { display: table-header-group; }
           .yield-grid { grid-template-columns: repeat(2, 1fr); }
+          table.exceptions { font-size: 8.5pt; }
+          table.exceptions td.code { font-size: 8pt; }
+          table.exceptions th, table.exceptions td { padding: .2rem .3rem; }
           a { color: inherit; text-decoration: none; }
         }
         """;
@@ -142,11 +150,11 @@ public static class HtmlDigestRenderer
         foreach (var e in ExceptionOrder.Sort(data.Exceptions))
         {
             html.Append("<tr data-flag-id=\"").Append(e.FlagId).Append("\"><td>").Append(Severity(e.Severity)).Append("</td>")
-                .Append("<td class=\"code\">").Append(H(e.BatchId)).Append(" <span class=\"none\">rev ").Append(e.Revision).Append("</span></td>")
+                .Append("<td class=\"code\">").Append(H(e.BatchId)).Append(" <span class=\"none rev\">rev ").Append(e.Revision).Append("</span></td>")
                 .Append("<td class=\"code short\">").Append(H(e.Recipe)).Append("</td>")
                 .Append("<td class=\"code short\">").Append(H(e.Step)).Append("</td>")
                 .Append("<td class=\"code\">").Append(H(DigestText.FlagName(e.Code, e.Subject))).Append("</td>")
-                .Append("<td class=\"num\">").Append(H(DigestText.MeasuredAgainstLimit(e))).Append("</td>")
+                .Append("<td class=\"num measure\">").Append(H(DigestText.MeasuredAgainstLimit(e))).Append("</td>")
                 .Append("<td class=\"msg\">").Append(H(e.Message)).Append("</td>")
                 .Append("<td>").Append(H(e.Review.ToText())).Append("</td></tr>\n");
         }

@@ -8,7 +8,8 @@ public sealed record ProgramResult(int ExitCode, string Stdout, string Stderr);
 /// <summary>Starts the built <c>batchreconcile</c> as a real process and waits for it.</summary>
 public static class ProgramRunner
 {
-    private static readonly TimeSpan Timeout = TimeSpan.FromSeconds(60);
+    // The demo ingests a week of exports and writes a digest; on a busy two-core machine that can take a while.
+    private static readonly TimeSpan Timeout = TimeSpan.FromSeconds(180);
 
     public static async Task<ProgramResult> RunAsync(params string[] args)
     {
@@ -42,5 +43,18 @@ public static class ProgramRunner
         }
 
         return new ProgramResult(process.ExitCode, await stdout, await stderr);
+    }
+
+    /// <summary>Runs the program and fails with its output when it does not exit with <paramref name="expectedExit"/>.</summary>
+    public static async Task<ProgramResult> RunExpectingAsync(int expectedExit, params string[] args)
+    {
+        var result = await RunAsync(args);
+        if (result.ExitCode != expectedExit)
+        {
+            throw new InvalidOperationException(
+                $"batchreconcile {string.Join(' ', args)} exited {result.ExitCode}, expected {expectedExit}\nstdout:\n{result.Stdout}\nstderr:\n{result.Stderr}");
+        }
+
+        return result;
     }
 }
