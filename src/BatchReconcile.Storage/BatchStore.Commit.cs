@@ -1,5 +1,6 @@
 using System.Globalization;
 using BatchReconcile.Records.Definitions;
+using BatchReconcile.Records.Exports;
 using BatchReconcile.Storage.Audit;
 using BatchReconcile.Storage.Ingest;
 using BatchReconcile.Storage.Sql;
@@ -9,6 +10,15 @@ namespace BatchReconcile.Storage;
 
 public sealed partial class BatchStore
 {
+    /// <summary>
+    /// At most this many batches are listed in a file's audit entry (<c>ingest.stored</c>, ...); a larger
+    /// file's entry adds <c>batchCount</c> and <c>batchesNotListed</c>.
+    /// </summary>
+    /// <remarks>The entry is one JSON text that is hashed whole: listing every batch of a 200 MB export
+    /// would take more memory than the rest of its ingestion. Each batch revision still records its file
+    /// (<c>batch_revision.ingest_ref</c>), and each new revision of a stored batch has its own entry.</remarks>
+    public const int MaxAuditedBatches = 1000;
+
     /// <summary>
     /// Stores a group of files in ONE transaction (one sync to disk for the whole group), each file
     /// all-or-nothing inside it. Files are taken in list order, so a later file sees the batches of
@@ -40,7 +50,7 @@ public sealed partial class BatchStore
                     transaction.Save(savepoint);
                     try
                     {
-                        results.Add(CommitFile(statements, file, now));
+                        results.Add(CommitFile(statements, file, now, () => transaction.Rollback(savepoint)));
                         transaction.Release(savepoint);
                     }
                     catch (Exception failure) when (failure is SqliteException or InvalidDataException or NotSupportedException or ArgumentException)
@@ -73,47 +83,80 @@ public sealed partial class BatchStore
         }
     }
 
-    private static FileCommitResult CommitFile(CommitStatements sql, FileIngest file, DateTimeOffset now)
+    /// <summary>Stores one file inside its savepoint; <paramref name="rollBackFile"/> undoes all of it
+    /// and leaves the savepoint open.</summary>
+    /// <remarks>
+    /// Every file with batches, listed or streamed, takes the same path: each batch is planned against
+    /// the store and written as soon as it is handed over, so a streamed file holds about one batch in
+    /// memory. The file's log entry is written first (its revisions refer to it) and its outcome and
+    /// batch count are set at the end, when they are known. An error the producer reports after some
+    /// batches were written rolls the file back to its savepoint, and it is logged as quarantined.
+    /// </remarks>
+    private static FileCommitResult CommitFile(CommitStatements sql, FileIngest file, DateTimeOffset now, Action rollBackFile)
     {
         var known = ReadKnownFile(sql.FindFile.Set("$sha256", file.Sha256));
         if (known is not null)
         {
-            var id = LogIngest(sql, file, IngestOutcome.Duplicate, now);
+            // A streamed file known by its hash (its twin came earlier in the same group) is never read,
+            // so its batch count is 0, as for a known file in a later group.
+            var id = LogIngest(sql, file, IngestOutcome.Duplicate, file.Errors.Count, file.Batches.Count, file.Report, now);
             Audit(sql, now, "ingest.duplicate", file, new { file = file.FileName, sha256 = file.Sha256, firstIngest = known.IngestId, firstOutcome = known.Outcome.ToText() });
-            return new FileCommitResult(file.FileName, file.Sha256, IngestOutcome.Duplicate, id, [], file.Errors.Count, null);
+            return new FileCommitResult(file.FileName, file.Sha256, IngestOutcome.Duplicate, id, [], file.Errors.Count, null) { Errors = file.Errors, Report = file.Report };
         }
 
         if (file.IsQuarantined)
         {
-            var id = LogIngest(sql, file, IngestOutcome.Quarantined, now);
-            Audit(sql, now, "ingest.quarantined", file, new { file = file.FileName, sha256 = file.Sha256, errors = file.Errors.Count });
-            return new FileCommitResult(file.FileName, file.Sha256, IngestOutcome.Quarantined, id, [], file.Errors.Count, null);
+            return LogQuarantined(sql, file, file.Errors, file.Report, now);
         }
 
-        var plans = file.Batches.Select(b => (Batch: b, Planned: PlanBatch(sql.FindBatch, b.Outcome.Batch))).ToList();
-        var outcome = plans.Any(p => p.Planned.Plan.Disposition == BatchDisposition.Revision) ? IngestOutcome.Revision
-            : plans.Any(p => p.Planned.Plan.Disposition == BatchDisposition.New) ? IngestOutcome.Stored
-            : plans.Count > 0 ? IngestOutcome.Duplicate
+        var ingestId = LogIngest(sql, file, IngestOutcome.Stored, 0, 0, null, now);
+        var batches = new List<(int FirstLine, BatchCommitResult Result)>();
+        var seen = new HashSet<string>(StringComparer.Ordinal);
+        var end = file.Produce(batch =>
+        {
+            ArgumentNullException.ThrowIfNull(batch);
+            if (!seen.Add(batch.BatchId))
+            {
+                throw new ArgumentException($"Batch {batch.BatchId} appears twice in {file.FileName}.", nameof(batch));
+            }
+
+            var (plan, batchRef, currentRef) = PlanBatch(sql.FindBatch, batch.Outcome.Batch);
+            var result = plan.Disposition == BatchDisposition.Unchanged
+                ? new BatchCommitResult(plan.BatchId, plan.Disposition, plan.Revision, [])
+                : StoreRevision(sql, file, ingestId, batch, plan, batchRef, currentRef, now);
+            batches.Add((batch.Outcome.Batch.Rows.Count > 0 ? batch.Outcome.Batch.Rows[0].Line : 0, result));
+        });
+
+        if (!end.IsValid)
+        {
+            // Nothing of the file may stay, not even its provisional log entry: the same bytes are
+            // recorded once, as quarantined, with every error the producer found.
+            rollBackFile();
+            return LogQuarantined(sql, file, end.Errors, end.Report, now);
+        }
+
+        // A listed file's batches keep the list's order. A streamed file's are put in the order of their
+        // first row, as a whole-file read lists them: the reader hands a batch over when its last row is
+        // read, which differs only when batches are interleaved.
+        var batchResults = (file.IsStreamed ? batches.OrderBy(b => b.FirstLine) : batches.AsEnumerable()).Select(b => b.Result).ToList();
+        var outcome = batchResults.Any(b => b.Disposition == BatchDisposition.Revision) ? IngestOutcome.Revision
+            : batchResults.Any(b => b.Disposition == BatchDisposition.New) ? IngestOutcome.Stored
+            : batchResults.Count > 0 ? IngestOutcome.Duplicate
             : IngestOutcome.Stored;
 
-        var ingestId = LogIngest(sql, file, outcome, now);
-        var batchResults = new List<BatchCommitResult>(plans.Count);
-        foreach (var (batch, (plan, batchRef, currentRef)) in plans)
-        {
-            batchResults.Add(plan.Disposition switch
-            {
-                BatchDisposition.Unchanged => new BatchCommitResult(plan.BatchId, plan.Disposition, plan.Revision, []),
-                _ => StoreRevision(sql, file, ingestId, batch, plan, batchRef, currentRef, now),
-            });
-        }
-
-        Audit(sql, now, "ingest." + outcome.ToText(), file, new
-        {
-            file = file.FileName,
-            sha256 = file.Sha256,
-            batches = batchResults.Select(b => new { batch = b.BatchId, disposition = b.Disposition.ToString().ToLowerInvariant(), revision = b.Revision }),
-        });
+        sql.FinishIngest.Set("$outcome", outcome.ToText()).Set("$batches", batchResults.Count).Set("$id", ingestId).Execute();
+        var listed = batchResults.Take(MaxAuditedBatches).Select(b => new { batch = b.BatchId, disposition = b.Disposition.ToString().ToLowerInvariant(), revision = b.Revision });
+        Audit(sql, now, "ingest." + outcome.ToText(), file, batchResults.Count <= MaxAuditedBatches
+            ? (object)new { file = file.FileName, sha256 = file.Sha256, batches = listed }
+            : new { file = file.FileName, sha256 = file.Sha256, batches = listed, batchCount = batchResults.Count, batchesNotListed = batchResults.Count - MaxAuditedBatches });
         return new FileCommitResult(file.FileName, file.Sha256, outcome, ingestId, batchResults, 0, null);
+    }
+
+    private static FileCommitResult LogQuarantined(CommitStatements sql, FileIngest file, IReadOnlyList<ExportError> errors, string? report, DateTimeOffset now)
+    {
+        var id = LogIngest(sql, file, IngestOutcome.Quarantined, errors.Count, 0, report, now);
+        Audit(sql, now, "ingest.quarantined", file, new { file = file.FileName, sha256 = file.Sha256, errors = errors.Count });
+        return new FileCommitResult(file.FileName, file.Sha256, IngestOutcome.Quarantined, id, [], errors.Count, null) { Errors = errors, Report = report };
     }
 
     private static BatchCommitResult StoreRevision(
@@ -194,12 +237,12 @@ public sealed partial class BatchStore
         return new BatchCommitResult(plan.BatchId, plan.Disposition, plan.Revision, flagIds);
     }
 
-    private static long LogIngest(CommitStatements sql, FileIngest file, IngestOutcome outcome, DateTimeOffset now) =>
+    private static long LogIngest(CommitStatements sql, FileIngest file, IngestOutcome outcome, int errorCount, int batchCount, string? report, DateTimeOffset now) =>
         sql.InsertIngest
             .Set("$file", file.FileName).Set("$sha256", file.Sha256).Set("$outcome", outcome.ToText())
-            .Set("$errors", file.Errors.Count).Set("$batches", file.Batches.Count)
+            .Set("$errors", errorCount).Set("$batches", batchCount)
             .Set("$received", DbText.Time(file.ReceivedAt)).Set("$processed", DbText.Time(now))
-            .Set("$report", file.Report)
+            .Set("$report", report)
             .ScalarInt64();
 
     private static void Audit(CommitStatements sql, DateTimeOffset now, string kind, FileIngest file, object detail) =>

@@ -53,6 +53,26 @@ public sealed partial class BatchStore
         }
     }
 
+    /// <summary>
+    /// Hands over the flags stored with a file (its ingest log id), in the order they were stored,
+    /// each with its batch id, including those a later file has since superseded. They are read one at
+    /// a time, so that the flags of a large file are never all in memory.
+    /// </summary>
+    public void ForEachFlagOfIngest(long ingestId, Action<string, StoredFlag> onFlag)
+    {
+        ArgumentNullException.ThrowIfNull(onFlag);
+        lock (_gate)
+        {
+            ThrowIfDisposed();
+            using var query = new PreparedCommand(_connection, null, StoreQueries.FlagsOfIngest, ("$ingest", SqliteType.Integer));
+            using var reader = query.Set("$ingest", ingestId).Read();
+            while (reader.Read())
+            {
+                onFlag(reader.GetString(FlagColumnCount), ReadFlag(reader));
+            }
+        }
+    }
+
     /// <summary>The rows of one revision (the current one when <paramref name="revision"/> is null) as read from the file; empty when not stored.</summary>
     public IReadOnlyList<RawRowView> GetRawRows(string batchId, int? revision = null)
     {

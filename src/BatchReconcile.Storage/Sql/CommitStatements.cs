@@ -39,6 +39,9 @@ internal sealed class CommitStatements : IDisposable
             VALUES ($file, $sha256, $outcome, $errors, $batches, $received, $processed, $report) RETURNING id
             """,
             ("$file", T), ("$sha256", T), ("$outcome", T), ("$errors", I), ("$batches", I), ("$received", T), ("$processed", T), ("$report", T));
+        FinishIngest = Make(
+            "UPDATE ingest_log SET outcome = $outcome, batch_count = $batches WHERE id = $id",
+            ("$outcome", T), ("$batches", I), ("$id", I));
         InsertBatch = Make(
             "INSERT INTO batch (batch_id, first_seen_at) VALUES ($batch, $at) RETURNING id",
             ("$batch", T), ("$at", T));
@@ -96,6 +99,9 @@ internal sealed class CommitStatements : IDisposable
     public PreparedCommand FindBatch { get; }
 
     public PreparedCommand InsertIngest { get; }
+
+    /// <summary>Sets a file's outcome and batch count once all its batches are stored (they are known only then).</summary>
+    public PreparedCommand FinishIngest { get; }
 
     public PreparedCommand InsertBatch { get; }
 

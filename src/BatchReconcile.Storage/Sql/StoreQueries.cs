@@ -38,6 +38,15 @@ internal static class StoreQueries
         FROM flag f WHERE f.revision_ref = $revision ORDER BY f.id
         """;
 
+    /// <summary>The flags stored with one file's revisions, in the order they were stored, each with its batch id (last column).</summary>
+    public const string FlagsOfIngest = $"""
+        SELECT {FlagColumns}, b.batch_id
+        FROM batch_revision r
+        JOIN batch b ON b.id = r.batch_ref
+        JOIN flag f ON f.revision_ref = r.id
+        WHERE r.ingest_ref = $ingest ORDER BY f.id
+        """;
+
     /// <summary>Current steps of a day that carry a flag; reads the day's steps from <c>ix_step_result_day</c>.</summary>
     public const string FlaggedStepsOfDay = $"""
         SELECT b.batch_id, r.revision, r.recipe, r.recipe_version, s.revision_ref, {StepColumns}

@@ -49,57 +49,88 @@ public sealed class IngestPipeline(
         return prepared.Zip(results, Settle).ToList();
     }
 
-    /// <summary>Hashes, reads and reconciles one file; stores nothing.</summary>
+    /// <summary>
+    /// Hashes one file and decides how it is to be stored; stores nothing. A new file is not read here:
+    /// it is read, reconciled and stored batch by batch inside the commit (<see cref="FileIngest.Streamed"/>).
+    /// </summary>
+    /// <remarks>
+    /// Every new file, small or large, takes the streamed path: one path to keep right, and for a small
+    /// file it does the same work as reading it whole first, only later. The price is that reading and
+    /// reconciling now happen inside the group's write transaction, which therefore lasts longer.
+    /// </remarks>
     public PreparedFile Prepare(ReadyFile file)
     {
         var sha256 = FileHash.Sha256Of(file.FullPath);
         var known = store.FindFile(sha256);
-        if (known is not null && known.Outcome != IngestOutcome.Quarantined)
+        if (known is null)
+        {
+            return new PreparedFile(file, FileIngest.Streamed(file.Name, sha256, file.ArrivedAt, storeBatch => Produce(file, sha256, storeBatch)), null);
+        }
+
+        if (known.Outcome != IngestOutcome.Quarantined)
         {
             // Same bytes as a file already taken: no need to read it again.
             return new PreparedFile(file, FileIngest.Accepted(file.Name, sha256, file.ArrivedAt, []), known);
         }
 
-        try
-        {
-            var read = ExportReader.Read(file.FullPath, file.Name, catalog.Current);
-            if (!read.IsValid)
-            {
-                return Quarantine(file, sha256, read.Errors, known);
-            }
-
-            var batches = read.Batches.Select(b => Reconcile(b, file.ArrivedAt)).ToList();
-            return new PreparedFile(file, FileIngest.Accepted(file.Name, sha256, file.ArrivedAt, batches), known);
-        }
-        catch (Exception e) when (e is not (IOException or UnauthorizedAccessException or OperationCanceledException))
-        {
-            // A fault of the program on one file must not stop the others: the file goes to quarantine
-            // untouched, with the reason, and nothing of it is stored.
-            logger.LogError(e, "{File} could not be reconciled because of an internal error; quarantined", file.Name);
-            var error = new ExportError(file.Name, 0, string.Empty, string.Empty, $"internal error while reconciling ({e.GetType().Name}: {e.Message}); nothing was stored, please report this file");
-            return Quarantine(file, sha256, [error], known);
-        }
-    }
-
-    private PreparedFile Quarantine(ReadyFile file, string sha256, IReadOnlyList<ExportError> errors, KnownFile? known)
-    {
-        var report = QuarantineReport.Render(file.Name, sha256, errors, time.GetUtcNow());
-        return new PreparedFile(file, FileIngest.Quarantined(file.Name, sha256, file.ArrivedAt, errors, report), known);
+        // Same bytes as a file quarantined before: logged as a duplicate and sent back to quarantine
+        // with a fresh report, so only its errors are wanted; its batches are dropped as they are read.
+        var scan = ExportReader.Scan(file.FullPath, file.Name, catalog.Current, static _ => { });
+        var ingest = scan.IsValid
+            ? FileIngest.Accepted(file.Name, sha256, file.ArrivedAt, [])
+            : FileIngest.Quarantined(file.Name, sha256, file.ArrivedAt, scan.Errors, QuarantineReport.Render(file.Name, sha256, scan.Errors, time.GetUtcNow()));
+        return new PreparedFile(file, ingest, known);
     }
 
     /// <summary>Reads and reconciles one file without storing or moving anything (the <c>check</c> command).</summary>
     public (ExportReadResult Read, IReadOnlyList<BatchIngest> Batches) Check(string path, DateTimeOffset arrivedAt)
     {
-        var read = ExportReader.Read(path, Path.GetFileName(path), catalog.Current);
-        var batches = read.IsValid ? read.Batches.Select(b => Reconcile(b, arrivedAt)).ToList() : [];
+        var current = catalog.Current;
+        var read = ExportReader.Read(path, Path.GetFileName(path), current);
+        var batches = read.IsValid ? read.Batches.Select(b => Reconcile(b, current, arrivedAt)).ToList() : [];
         return (read, batches);
     }
 
-    private BatchIngest Reconcile(BatchRecord batch, DateTimeOffset arrivedAt)
+    /// <summary>Called by the store inside the file's savepoint: hands each batch over, reconciled, as
+    /// soon as its last row is read. An error found later makes the store roll back what it stored.</summary>
+    private StreamedFileEnd Produce(ReadyFile file, string sha256, Action<BatchIngest> storeBatch)
     {
+        // One snapshot of the definitions for the whole file, so that a reload meanwhile cannot read
+        // one part of the file against one version of them and reconcile another against the next.
         var current = catalog.Current;
+        try
+        {
+            var scan = ExportReader.Scan(file.FullPath, file.Name, current, batch => storeBatch(ReconcileOrFault(batch, current, file.ArrivedAt)));
+            return scan.IsValid
+                ? StreamedFileEnd.Valid
+                : StreamedFileEnd.Rejected(scan.Errors, QuarantineReport.Render(file.Name, sha256, scan.Errors, time.GetUtcNow()));
+        }
+        catch (ReconcileFault fault)
+        {
+            // A fault of the program on one file must not stop the others: what was stored of the file is
+            // rolled back, and the file goes to quarantine untouched, with the reason.
+            logger.LogError(fault.InnerException, "{File} could not be reconciled because of an internal error; quarantined", file.Name);
+            ExportError[] errors = [new ExportError(file.Name, 0, string.Empty, string.Empty, $"internal error while reconciling ({fault.InnerException!.GetType().Name}: {fault.Message}); nothing was stored, please report this file")];
+            return StreamedFileEnd.Rejected(errors, QuarantineReport.Render(file.Name, sha256, errors, time.GetUtcNow()));
+        }
+    }
+
+    private BatchIngest ReconcileOrFault(BatchRecord batch, ProcessCatalog current, DateTimeOffset arrivedAt)
+    {
+        try
+        {
+            return Reconcile(batch, current, arrivedAt);
+        }
+        catch (Exception e) when (e is not OperationCanceledException)
+        {
+            throw new ReconcileFault(e);
+        }
+    }
+
+    private BatchIngest Reconcile(BatchRecord batch, ProcessCatalog current, DateTimeOffset arrivedAt)
+    {
         var recipe = current.FindRecipe(batch.RecipeCode, batch.RecipeVersion)
-            ?? throw new InvalidOperationException($"recipe {batch.RecipeCode} v{batch.RecipeVersion} vanished between reading and reconciling");
+            ?? throw new InvalidOperationException($"recipe {batch.RecipeCode} v{batch.RecipeVersion} is not in the definitions the file was read against");
         var outcome = BatchReconciler.Reconcile(batch, recipe, current, settings);
         return new BatchIngest(outcome, calendar.DayOfBatch(outcome, arrivedAt));
     }
@@ -121,8 +152,8 @@ public sealed class IngestPipeline(
         var outcome = result.Outcome!.Value;
         if (outcome == IngestOutcome.Quarantined || prepared.Known?.Outcome == IngestOutcome.Quarantined)
         {
-            var errors = prepared.Ingest.Errors;
-            var moved = mover.MoveToQuarantine(file.FullPath, prepared.Ingest.Report ?? QuarantineReport.Render(file.Name, result.Sha256, errors, time.GetUtcNow()));
+            var errors = result.Errors;
+            var moved = mover.MoveToQuarantine(file.FullPath, result.Report ?? QuarantineReport.Render(file.Name, result.Sha256, errors, time.GetUtcNow()));
             foreach (var error in errors.Take(20))
             {
                 logger.LogWarning("{File} line {Line} column {Column} value {Value}: {Reason}", file.Name, error.Line, error.Column, error.Value, error.Reason);
@@ -143,12 +174,20 @@ public sealed class IngestPipeline(
             logger.LogInformation("{File} is a duplicate ({Sha256}); archived without storing", file.Name, result.Sha256);
         }
 
-        var storedNow = result.Batches.Where(b => b.Disposition != BatchDisposition.Unchanged).Select(b => b.BatchId).ToHashSet(StringComparer.Ordinal);
-        foreach (var flag in prepared.Ingest.Batches.Where(b => storedNow.Contains(b.BatchId)).SelectMany(b => b.Outcome.Flags.Select(f => (b.BatchId, Flag: f))))
+        // The flags are read back from the store rather than kept from reconciling: a large file's
+        // outcomes are gone by now, and only what was committed is logged.
+        if (result.Batches.Any(b => b.FlagIds.Count > 0) && result.IngestId is { } ingestId)
         {
-            logger.LogInformation("{File} batch {Batch} step {Step} flag {Flag} ({Severity}): {Message}", file.Name, flag.BatchId, flag.Flag.Step, flag.Flag.Code, flag.Flag.Severity, flag.Flag.Message);
+            store.ForEachFlagOfIngest(ingestId, (batchId, stored) =>
+            {
+                var flag = stored.Flag;
+                logger.LogInformation("{File} batch {Batch} step {Step} flag {Flag} ({Severity}): {Message}", file.Name, batchId, flag.Step, flag.Code, flag.Severity, flag.Message);
+            });
         }
 
         return new FileOutcome(file.Name, result.Sha256, outcome, result.Batches, [], archived.DestinationPath, null);
     }
+
+    /// <summary>Carries a reconciling fault out of the reader's callback, apart from the store's own errors.</summary>
+    private sealed class ReconcileFault(Exception inner) : Exception(inner.Message, inner);
 }
