@@ -68,12 +68,12 @@ internal static class StepInputBuilder
                     break;
                 case EntryKind.Waste:
                     double? wastePct = namesProduct && row.AssayPct is { } own ? own : StreamShare(row);
-                    outputs.Add(OutputRow.Waste(kg, kg * (wastePct ?? 0) / 100));
+                    outputs.Add(OutputRow.Waste(kg, ContentOf(kg, wastePct)));
                     break;
                 case EntryKind.Sample:
                     double? samplePct = namesProduct && row.AssayPct is { } ownSample ? ownSample
                         : StreamShare(row) ?? (namesProduct ? 100 : null);
-                    outputs.Add(OutputRow.Sample(kg, kg * (samplePct ?? 0) / 100));
+                    outputs.Add(OutputRow.Sample(kg, ContentOf(kg, samplePct)));
                     break;
                 case EntryKind.Recovered:
                     var recovered = materials.Get(row.Material ?? throw Bug(step, row, "a recovered row without a material"));
@@ -139,4 +139,16 @@ internal static class StepInputBuilder
 
     private static InvalidOperationException Bug(RecipeStep step, RecordRow row, string what) =>
         new($"Step {step.Code}, line {row.Line}: {what} reached the reconciler; the export reader should have refused it.");
+
+    /// <summary>
+    /// The mass of product in a row of <paramref name="kg"/> at <paramref name="pct"/> %; none when no share is known.
+    /// </summary>
+    /// <remarks>At 100 % the row's own mass, exactly: kg · 100 / 100 can come out one unit in the last place above kg
+    /// (0.208 gives 0.20800000000000002), which would make the content exceed the gross mass.</remarks>
+    internal static double ContentOf(double kg, double? pct) => pct switch
+    {
+        null => 0,
+        >= 100 => kg,
+        { } share => kg * share / 100,
+    };
 }

@@ -24,5 +24,6 @@ public sealed record RecordRow(
     IReadOnlyList<KeyValuePair<string, string>> Raw)
 {
     /// <summary>Mass of the named material in the row: gross × assay; assay defaults to 100 %.</summary>
-    public double MaterialKg => (QuantityKg ?? 0) * (AssayPct ?? 100.0) / 100.0;
+    /// <remarks>At 100 % the gross mass exactly: q · 100 / 100 can land one unit in the last place above q.</remarks>
+    public double MaterialKg => AssayPct is null or >= 100 ? QuantityKg ?? 0 : (QuantityKg ?? 0) * AssayPct.Value / 100.0;
 }
