@@ -22,7 +22,7 @@ public static class AuditCommand
 
             stderr.WriteLine($"batchreconcile: audit trail broken at entry {result.FirstBadId}: {result.Message}");
             return ExitCodes.UnexpectedFailure;
-        }));
+        }, storeOnly: true));
         return new Command("audit", "The audit trail of ingests, revisions, reviews and digests") { verify };
     }
 }

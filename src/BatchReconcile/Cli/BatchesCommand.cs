@@ -36,7 +36,7 @@ public static class BatchesCommand
                 [$"from {view.SourceFile}"],
                 view.Steps.Select(s => (s.Outcome, (IReadOnlyList<(Reconciliation.Flags.Flag, long?)>)s.Flags.Select(f => (f.Flag, (long?)f.Id)).ToList())));
             return ExitCodes.Success;
-        }));
+        }, storeOnly: true));
 
         return new Command("batches", "Stored batches") { show };
     }

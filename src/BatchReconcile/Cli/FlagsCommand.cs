@@ -44,7 +44,7 @@ public static class FlagsCommand
 
             stdout.WriteLine(string.Create(Inv, $"{flags.Count} flag(s)"));
             return ExitCodes.Success;
-        }));
+        }, storeOnly: true));
         return command;
     }
 
@@ -78,7 +78,7 @@ public static class FlagsCommand
             var detail = review.Outcome is { } o ? $" ({o.ToText()}{(review.DeviationRef is { } r ? $", {r}" : "")})" : string.Empty;
             stdout.WriteLine(string.Create(Inv, $"flag {flagId}: {review.State.ToText()}{detail}, by {review.By} at {review.At:yyyy-MM-ddTHH:mm:ssZ}; audit entry {result.AuditId}"));
             return ExitCodes.Success;
-        }));
+        }, storeOnly: true));
         return command;
     }
 

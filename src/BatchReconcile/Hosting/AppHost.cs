@@ -101,13 +101,18 @@ public static class AppHost
     /// Resolves every service that start-up must check (options, definitions, database), so that a bad
     /// setting or definition stops the command before any file is touched.
     /// </summary>
-    public static void Validate(IServiceProvider services)
+    /// <param name="definitions">Also load and check the process definitions (every command that reads exports or renders them).</param>
+    public static void Validate(IServiceProvider services, bool definitions = true)
     {
         _ = services.GetRequiredService<IOptions<SiteOptions>>().Value;
         _ = services.GetRequiredService<IOptions<IntakeOptions>>().Value;
         _ = services.GetRequiredService<IOptions<StoreSettings>>().Value;
         _ = services.GetRequiredService<IOptions<ReconciliationSettings>>().Value;
-        _ = services.GetRequiredService<CatalogSource>();
+        if (definitions)
+        {
+            _ = services.GetRequiredService<CatalogSource>();
+        }
+
         _ = services.GetRequiredService<BatchStore>();
     }
 
