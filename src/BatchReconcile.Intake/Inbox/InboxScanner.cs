@@ -1,13 +1,15 @@
 namespace BatchReconcile.Intake.Inbox;
 
-/// <summary>One look at a folder of exports (the <c>ingest FOLDER</c> case): no watching, no waiting beyond one settle interval.</summary>
+/// <summary>One look at a folder of exports (the <c>ingest FOLDER</c> case): no watching, and waiting only for files written within the last settle interval.</summary>
 public static class InboxScanner
 {
     /// <summary>
-    /// Lists the candidate files of <paramref name="folder"/>, waits <paramref name="settle"/> once and
-    /// returns those whose size and last-write time did not change meanwhile and that open exclusively.
-    /// Pass the site's settle interval when the folder may still be written to; zero for a folder known
-    /// to be finished (then only the exclusive open is checked).
+    /// Lists the candidate files of <paramref name="folder"/> and returns those that are complete
+    /// (the watcher's rule: not written for <paramref name="settle"/>, opens exclusively). Files last
+    /// written at least <paramref name="settle"/> ago are returned without any wait; only when some
+    /// file was written more recently, or is held open, does the scan wait for it, and never much
+    /// longer than one settle interval. Zero for a folder known to be finished (then only the
+    /// exclusive open is checked).
     /// </summary>
     public static async Task<InboxScan> ScanOnceAsync(string folder, TimeSpan settle, TimeProvider time, CancellationToken cancellationToken = default)
     {
@@ -16,18 +18,21 @@ public static class InboxScanner
         var options = new InboxOptions(folder, settle, TimeSpan.FromDays(1), useFileSystemEvents: false);
         using var watcher = new InboxWatcher(options, time);
         watcher.Start();
-        var ready = new List<ReadyFile>(watcher.TakeReady(int.MaxValue, out _));
-        if (settle > TimeSpan.Zero)
+        var started = time.GetTimestamp();
+        // Half an interval of slack: a timer can fire a hair before its time, and a file found a moment
+        // after the listing started is due a moment after one interval. A file that is still changing, or
+        // held open, after that is left for a later run rather than waited for again.
+        var budget = settle + (settle / 2);
+        var ready = new List<ReadyFile>();
+        while (true)
         {
-            await Task.Delay(settle, time, cancellationToken).ConfigureAwait(false);
             ready.AddRange(watcher.TakeReady(int.MaxValue, out var wait));
-            // A timer can fire a hair before the interval has passed on the monotonic clock; files that were
-            // only short of it get one more look. Files that changed meanwhile would need a whole interval.
-            if (watcher.PendingNames().Count > 0 && wait < settle / 2)
+            if (settle <= TimeSpan.Zero || watcher.PendingNames().Count == 0 || time.GetElapsedTime(started) + wait > budget)
             {
-                await Task.Delay(wait, time, cancellationToken).ConfigureAwait(false);
-                ready.AddRange(watcher.TakeReady(int.MaxValue, out _));
+                break;
             }
+
+            await Task.Delay(wait, time, cancellationToken).ConfigureAwait(false);
         }
 
         return new InboxScan(ready, watcher.PendingNames());

@@ -5,25 +5,33 @@ namespace BatchReconcile.Intake.Inbox;
 
 /// <summary>
 /// Watches one inbox folder and hands out files once they are complete, oldest arrival first.
-/// A file counts as complete when its size and last-write time stayed the same for the settle
-/// interval (measured with the injected <see cref="TimeProvider"/>) and it opens exclusively.
-/// Candidates come from a FileSystemWatcher and from a full listing every rescan interval,
-/// because watchers drop events. Nothing is remembered across restarts: a file still in the
-/// inbox after a restart is handed out again (the store recognises it by its hash).
+/// A file counts as complete when it has not been written for the settle interval and it opens
+/// exclusively (see <see cref="Settled"/> for the exact rule). Candidates come from a
+/// FileSystemWatcher and from a full listing every rescan interval, because watchers drop events.
+/// Nothing is remembered across restarts: a file still in the inbox after a restart is handed out
+/// again (the store recognises it by its hash).
 /// </summary>
 /// <remarks>
 /// A file handed out stays "in flight" and is not handed out again until the consumer calls
 /// <see cref="Complete"/> or the file is gone from the inbox. Files are ordered among those that
 /// are ready: a file still being written does not hold back later files that are complete.
 /// One consumer at a time; <see cref="Complete"/> may be called from any thread.
+/// Each file is looked at (stat, exclusive open) when it is found, when an event or a rescan says
+/// it may have changed, when its settle time is due, and once more just before it is handed out;
+/// files found ready wait in an ordered queue without being looked at again, so draining a
+/// backlog in groups costs a few looks per file, not a look at every waiting file per group.
 /// </remarks>
 public sealed class InboxWatcher : IDisposable
 {
     private readonly InboxOptions _options;
     private readonly TimeProvider _time;
+    private readonly IFileProbe _probe;
     private readonly object _gate = new();
     private readonly object _wakeGate = new();
     private readonly Dictionary<string, Entry> _entries = new(StringComparer.Ordinal);
+    private readonly HashSet<string> _toCheck = new(StringComparer.Ordinal);
+    private readonly PriorityQueue<string, long> _due = new();
+    private readonly SortedSet<ReadyFile> _ready = new(Comparer<ReadyFile>.Create(CompareArrival));
     private readonly ConcurrentQueue<string> _events = new();
     private TaskCompletionSource _wake = NewWake();
     private FileSystemWatcher? _watcher;
@@ -35,9 +43,15 @@ public sealed class InboxWatcher : IDisposable
 
     /// <summary>Creates a watcher; nothing happens on disk until <see cref="Start"/> or the first read.</summary>
     public InboxWatcher(InboxOptions options, TimeProvider time)
+        : this(options, time, FileProbe.Instance)
+    {
+    }
+
+    internal InboxWatcher(InboxOptions options, TimeProvider time, IFileProbe probe)
     {
         _options = options ?? throw new ArgumentNullException(nameof(options));
         _time = time ?? throw new ArgumentNullException(nameof(time));
+        _probe = probe ?? throw new ArgumentNullException(nameof(probe));
     }
 
     /// <summary>The watched folder (absolute).</summary>
@@ -72,8 +86,9 @@ public sealed class InboxWatcher : IDisposable
 
     /// <summary>
     /// Looks at the inbox now and returns the files that are complete at this moment, in arrival
-    /// order, marking them in flight. Never waits. The first call after a file appears only records
-    /// its size and time; it becomes ready on a call at least one settle interval later.
+    /// order, marking them in flight. Never waits. A file last written at least one settle interval
+    /// ago is ready on the first call that sees it; a file written more recently becomes ready on a
+    /// call once its last write is that old.
     /// </summary>
     public IReadOnlyList<ReadyFile> TakeReady(int maxFiles = int.MaxValue) => TakeReady(maxFiles, out _);
 
@@ -195,71 +210,58 @@ public sealed class InboxWatcher : IDisposable
                 Rescan(startup: false);
             }
 
-            var settle = _options.SettleInterval;
-            var ready = new List<(Entry Entry, ReadyFile File)>();
-            var nextCheck = _time.GetElapsedTime(now, _nextRescanAt);
-            foreach (var entry in _entries.Values.ToList())
+            while (_due.TryPeek(out var dueName, out var dueAt) && dueAt <= now)
             {
-                if (entry.InFlight is not null)
+                _due.Dequeue();
+                // The queue is never cleaned: an entry rescheduled or gone since leaves a stale item behind.
+                if (_entries.TryGetValue(dueName, out var dueEntry) && dueEntry.IsWaiting && dueEntry.CheckAt == dueAt)
                 {
-                    continue;
+                    _toCheck.Add(dueName);
                 }
-
-                var path = Path.Combine(_options.InboxPath, entry.Name);
-                if (!TryStat(path, out var size, out var lastWrite))
-                {
-                    _entries.Remove(entry.Name);
-                    continue;
-                }
-
-                if (entry.Size != size || entry.LastWriteUtc != lastWrite)
-                {
-                    entry.Size = size;
-                    entry.LastWriteUtc = lastWrite;
-                    entry.StableSince = now;
-                    entry.RetryAt = now;
-                }
-
-                var quiet = _time.GetElapsedTime(entry.StableSince, now);
-                if (quiet < settle)
-                {
-                    nextCheck = Min(nextCheck, settle - quiet);
-                    continue;
-                }
-
-                if (now < entry.RetryAt)
-                {
-                    nextCheck = Min(nextCheck, _time.GetElapsedTime(now, entry.RetryAt));
-                    continue;
-                }
-
-                if (!CanOpenExclusively(path))
-                {
-                    // Someone (a writer that locks, an editor) still holds it: look again a little later.
-                    var retry = settle > TimeSpan.Zero ? settle : TimeSpan.FromMilliseconds(250);
-                    entry.RetryAt = now + (long)(retry.TotalSeconds * _time.TimestampFrequency);
-                    nextCheck = Min(nextCheck, retry);
-                    continue;
-                }
-
-                ready.Add((entry, new ReadyFile(path, entry.Name, entry.ArrivedAt, size, lastWrite)));
             }
 
-            ready.Sort(static (a, b) => CompareArrival(a.File, b.File));
-            var taken = ready.Take(maxFiles).ToList();
-            foreach (var (entry, file) in taken)
+            foreach (var name in _toCheck)
             {
-                entry.InFlight = file;
+                if (_entries.TryGetValue(name, out var entry))
+                {
+                    Evaluate(entry, now, nowUtc);
+                }
+            }
+
+            _toCheck.Clear();
+            var taken = new List<ReadyFile>();
+            while (taken.Count < maxFiles && _ready.Min is { } queued)
+            {
+                _ready.Remove(queued);
+                var entry = _entries[queued.Name];
+                entry.Queued = null;
+                // Found ready earlier; only this file is looked at again, in case it changed without an event.
+                if (Stat(entry, now) && Settled(entry, now, nowUtc) is { } file)
+                {
+                    entry.InFlight = file;
+                    taken.Add(file);
+                }
+            }
+
+            var nextCheck = _time.GetElapsedTime(now, _nextRescanAt);
+            if (_due.TryPeek(out _, out var nextDue))
+            {
+                nextCheck = Min(nextCheck, _time.GetElapsedTime(now, nextDue));
             }
 
             // Ready files left over because of maxFiles are ready on the next call without waiting.
-            untilNextCheck = taken.Count < ready.Count ? TimeSpan.Zero : Max(nextCheck, TimeSpan.FromMilliseconds(1));
-            return taken.Select(t => t.File).ToList();
+            untilNextCheck = _ready.Count > 0 ? TimeSpan.Zero : Max(nextCheck, TimeSpan.FromMilliseconds(1));
+            return taken;
         }
     }
 
-    private static int CompareArrival(ReadyFile a, ReadyFile b)
+    private static int CompareArrival(ReadyFile? a, ReadyFile? b)
     {
+        if (a is null || b is null)
+        {
+            return a is null ? (b is null ? 0 : -1) : 1;
+        }
+
         var byArrival = a.ArrivedAt.CompareTo(b.ArrivedAt);
         if (byArrival != 0)
         {
@@ -269,6 +271,116 @@ public sealed class InboxWatcher : IDisposable
         var byWrite = a.LastWriteUtc.CompareTo(b.LastWriteUtc);
         return byWrite != 0 ? byWrite : string.CompareOrdinal(a.Name, b.Name);
     }
+
+    /// <summary>Looks at a file that is new, may have changed or is due, and queues it when it is complete.</summary>
+    private void Evaluate(Entry entry, long now, DateTimeOffset nowUtc)
+    {
+        if (entry.InFlight is not null || !Stat(entry, now) || entry.Queued is not null)
+        {
+            // In flight, gone, or unchanged since it was found ready (Stat dequeues it on any change).
+            return;
+        }
+
+        if (Settled(entry, now, nowUtc) is { } file)
+        {
+            entry.Queued = file;
+            _ready.Add(file);
+        }
+    }
+
+    /// <summary>Records the file's size and last-write time; false (and forgotten) when it is gone.</summary>
+    private bool Stat(Entry entry, long now)
+    {
+        if (!_probe.TryStat(PathOf(entry), out var size, out var lastWrite))
+        {
+            Forget(entry);
+            return false;
+        }
+
+        entry.ArrivedAt ??= lastWrite;
+        if (entry.Size != size || entry.LastWriteUtc != lastWrite)
+        {
+            if (entry.Queued is { } queued)
+            {
+                _ready.Remove(queued);
+                entry.Queued = null;
+            }
+
+            entry.Size = size;
+            entry.LastWriteUtc = lastWrite;
+            entry.StableSince = now;
+            entry.RetryAt = now;
+        }
+
+        return true;
+    }
+
+    /// <summary>
+    /// The file as a <see cref="ReadyFile"/> when it is complete now; otherwise schedules its next look.
+    /// </summary>
+    /// <remarks>
+    /// Complete means: no write for at least the settle interval, and an exclusive open succeeds.
+    /// "No write" is proven by whichever evidence is longer: how long this watcher has seen size and
+    /// last-write time unchanged (monotonic clock), or how old the last-write time itself is (wall
+    /// clock). Every write moves the last-write time, so a file last written a settle interval ago
+    /// has had no write in that interval even if it was renamed or moved in a moment ago, or the
+    /// service only just started: it needs no further wait, which makes renamed-in exports and old
+    /// backlogs ready on first sight. A file written recently waits until its last write is settle-old.
+    /// A last-write time in the future (the writer's clock ahead of ours) proves nothing and counts as
+    /// just written, so such a file waits a full interval of observed quiet, as before.
+    /// A slow writer pausing less than the settle interval keeps the last-write time recent, so it is
+    /// never taken early.
+    /// </remarks>
+    private ReadyFile? Settled(Entry entry, long now, DateTimeOffset nowUtc)
+    {
+        var settle = _options.SettleInterval;
+        var observed = _time.GetElapsedTime(entry.StableSince, now);
+        var age = nowUtc - entry.LastWriteUtc!.Value;
+        var quiet = age > observed ? age : observed;
+        if (quiet < settle)
+        {
+            Schedule(entry, now + Ticks(settle - quiet));
+            return null;
+        }
+
+        if (now < entry.RetryAt)
+        {
+            Schedule(entry, entry.RetryAt);
+            return null;
+        }
+
+        var path = PathOf(entry);
+        if (!_probe.CanOpenExclusively(path))
+        {
+            // Someone (a writer that locks, an editor) still holds it: look again a little later.
+            var retry = settle > TimeSpan.Zero ? settle : TimeSpan.FromMilliseconds(250);
+            entry.RetryAt = now + Ticks(retry);
+            Schedule(entry, entry.RetryAt);
+            return null;
+        }
+
+        return new ReadyFile(path, entry.Name, entry.ArrivedAt!.Value, entry.Size!.Value, entry.LastWriteUtc.Value);
+    }
+
+    private void Schedule(Entry entry, long at)
+    {
+        entry.CheckAt = at;
+        _due.Enqueue(entry.Name, at);
+    }
+
+    private void Forget(Entry entry)
+    {
+        if (entry.Queued is { } queued)
+        {
+            _ready.Remove(queued);
+        }
+
+        _entries.Remove(entry.Name);
+    }
+
+    private string PathOf(Entry entry) => Path.Combine(_options.InboxPath, entry.Name);
+
+    private long Ticks(TimeSpan span) => (long)Math.Ceiling(span.TotalSeconds * _time.TimestampFrequency);
 
     private void Rescan(bool startup)
     {
@@ -282,26 +394,31 @@ public sealed class InboxWatcher : IDisposable
                 continue;
             }
 
-            if (_entries.ContainsKey(name))
+            present.Add(name);
+            if (_entries.TryGetValue(name, out var entry))
             {
-                present.Add(name);
+                // Without events (or with events lost) a rescan is the only news of a write to a waiting file.
+                if (entry.IsWaiting)
+                {
+                    _toCheck.Add(name);
+                }
+
                 continue;
             }
 
-            if (TryStat(path, out _, out var lastWrite))
-            {
-                present.Add(name);
-                _entries[name] = new Entry(name, startup ? lastWrite : nowUtc);
-            }
+            // A backlog found at start-up arrives at its last-write time (set by the first look), so it keeps
+            // the order in which it was written.
+            _entries[name] = new Entry(name, startup ? null : nowUtc);
+            _toCheck.Add(name);
         }
 
-        foreach (var name in _entries.Keys.Where(n => !present.Contains(n)).ToList())
+        foreach (var entry in _entries.Values.Where(e => !present.Contains(e.Name)).ToList())
         {
-            _entries.Remove(name);
+            Forget(entry);
         }
 
         var now = _time.GetTimestamp();
-        _nextRescanAt = now + (long)(_options.RescanInterval.TotalSeconds * _time.TimestampFrequency);
+        _nextRescanAt = now + Ticks(_options.RescanInterval);
     }
 
     private void DrainEvents(DateTimeOffset nowUtc)
@@ -313,23 +430,27 @@ public sealed class InboxWatcher : IDisposable
                 continue;
             }
 
-            var path = Path.Combine(_options.InboxPath, name);
-            var exists = TryStat(path, out _, out _);
             if (_entries.TryGetValue(name, out var entry))
             {
-                if (!exists && entry.InFlight is not null)
+                if (entry.InFlight is not null)
                 {
-                    // Moved away by the consumer (or deleted): a new file of that name is a new arrival.
-                    _entries.Remove(name);
+                    if (!_probe.TryStat(PathOf(entry), out _, out _))
+                    {
+                        // Moved away by the consumer (or deleted): a new file of that name is a new arrival.
+                        _entries.Remove(name);
+                    }
+                }
+                else
+                {
+                    _toCheck.Add(name);
                 }
 
                 continue;
             }
 
-            if (exists)
-            {
-                _entries[name] = new Entry(name, nowUtc);
-            }
+            // Looked at (and dropped again when it does not exist) with the other files to check.
+            _entries[name] = new Entry(name, nowUtc);
+            _toCheck.Add(name);
         }
     }
 
@@ -385,53 +506,18 @@ public sealed class InboxWatcher : IDisposable
         }
     }
 
-    private static bool TryStat(string path, out long size, out DateTimeOffset lastWriteUtc)
-    {
-        var info = new FileInfo(path);
-        // Exists is false for folders; symbolic links are skipped because moving one would archive the link, not the data.
-        if (!info.Exists || (info.Attributes & FileAttributes.ReparsePoint) != 0)
-        {
-            size = 0;
-            lastWriteUtc = default;
-            return false;
-        }
-
-        size = info.Length;
-        lastWriteUtc = new DateTimeOffset(info.LastWriteTimeUtc, TimeSpan.Zero);
-        return true;
-    }
-
-    private static bool CanOpenExclusively(string path)
-    {
-        // FileShare.None: on Windows a real share-mode lock. On Linux and macOS .NET emulates it with an
-        // advisory flock, which only other .NET processes (and programs that use flock) respect; a plain
-        // writer is not stopped by it. The settle check above is what really protects against a slow writer.
-        try
-        {
-            using var stream = new FileStream(path, FileMode.Open, FileAccess.Read, FileShare.None, bufferSize: 1);
-            return true;
-        }
-        catch (IOException)
-        {
-            return false;
-        }
-        catch (UnauthorizedAccessException)
-        {
-            return false;
-        }
-    }
-
     private static TaskCompletionSource NewWake() => new(TaskCreationOptions.RunContinuationsAsynchronously);
 
     private static TimeSpan Min(TimeSpan a, TimeSpan b) => a < b ? a : b;
 
     private static TimeSpan Max(TimeSpan a, TimeSpan b) => a > b ? a : b;
 
-    private sealed class Entry(string name, DateTimeOffset arrivedAt)
+    private sealed class Entry(string name, DateTimeOffset? arrivedAt)
     {
         public string Name { get; } = name;
 
-        public DateTimeOffset ArrivedAt { get; } = arrivedAt;
+        /// <summary>When first seen; null until the first look for a file found at start-up (then its last-write time).</summary>
+        public DateTimeOffset? ArrivedAt { get; set; } = arrivedAt;
 
         public long? Size { get; set; }
 
@@ -441,6 +527,14 @@ public sealed class InboxWatcher : IDisposable
 
         public long RetryAt { get; set; }
 
+        /// <summary>The scheduled look this entry waits for; older items in the due queue are stale.</summary>
+        public long CheckAt { get; set; }
+
+        /// <summary>Its place in the ready queue, while found ready and not yet handed out.</summary>
+        public ReadyFile? Queued { get; set; }
+
         public ReadyFile? InFlight { get; set; }
+
+        public bool IsWaiting => InFlight is null && Queued is null;
     }
 }

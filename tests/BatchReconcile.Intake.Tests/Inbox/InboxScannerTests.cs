@@ -1,4 +1,5 @@
 using BatchReconcile.Intake.Inbox;
+using Microsoft.Extensions.Time.Testing;
 
 namespace BatchReconcile.Intake.Tests.Inbox;
 
@@ -29,6 +30,41 @@ public sealed class InboxScannerTests : IDisposable
         Assert.Equal(["earlier.csv", "later.csv"], scan.Ready.Select(f => f.Name));
         Assert.Equal(["busy.csv"], scan.NotReady);
     }
+
+    [Fact]
+    public async Task Files_written_long_ago_are_returned_without_waiting_for_the_settle_interval()
+    {
+        var folder = _temp.Sub("old");
+        var time = new FakeTimeProvider(new DateTimeOffset(2026, 11, 24, 8, 0, 0, TimeSpan.Zero));
+        File.SetLastWriteTimeUtc(Write(folder, "second.csv"), new DateTime(2026, 11, 23, 22, 0, 0, DateTimeKind.Utc));
+        File.SetLastWriteTimeUtc(Write(folder, "first.csv"), new DateTime(2026, 11, 23, 21, 0, 0, DateTimeKind.Utc));
+
+        // The fake clock never moves: a scan that waited on it would never finish.
+        var scan = ScanOnce(folder, TimeSpan.FromSeconds(2), time);
+
+        Assert.True(scan.IsCompleted);
+        Assert.Equal(["first.csv", "second.csv"], (await scan).Ready.Select(f => f.Name));
+        Assert.Empty((await scan).NotReady);
+    }
+
+    [Fact]
+    public async Task A_file_written_within_the_settle_interval_is_waited_for_until_it_is_settle_old()
+    {
+        var folder = _temp.Sub("mixed");
+        var time = new FakeTimeProvider(new DateTimeOffset(2026, 11, 24, 8, 0, 0, TimeSpan.Zero));
+        File.SetLastWriteTimeUtc(Write(folder, "old.csv"), time.GetUtcNow().UtcDateTime.AddHours(-1));
+        File.SetLastWriteTimeUtc(Write(folder, "fresh.csv"), time.GetUtcNow().UtcDateTime.AddSeconds(-1.5));
+
+        var scan = ScanOnce(folder, TimeSpan.FromSeconds(2), time);
+        time.Advance(TimeSpan.FromSeconds(0.4));
+        Assert.False(scan.IsCompleted);
+        time.Advance(TimeSpan.FromSeconds(0.1));
+
+        Assert.Equal(["old.csv", "fresh.csv"], (await scan.WaitAsync(Within.Deadline)).Ready.Select(f => f.Name));
+    }
+
+    private static Task<InboxScan> ScanOnce(string folder, TimeSpan settle, TimeProvider time) =>
+        InboxScanner.ScanOnceAsync(folder, settle, time, Within.Token());
 
     private static string Write(string folder, string name)
     {

@@ -135,8 +135,7 @@ public sealed class InboxWatcherTests : IDisposable
         File.SetLastWriteTimeUtc(Write("d.csv", "d"), at.AddMinutes(5));
         using var watcher = Watcher();
 
-        watcher.TakeReady();
-        _time.Advance(Settle);
+        // All were last written long before the clock's now, so the first look already takes them.
         var ready = watcher.TakeReady();
 
         Assert.Equal(["c.csv", "b.csv", "a.csv", "d.csv"], ready.Select(f => f.Name));
@@ -255,6 +254,131 @@ public sealed class InboxWatcherTests : IDisposable
             "the renamed file to be ready");
 
         Assert.Equal("AP-7.csv", Assert.Single(ready).Name);
+    }
+
+    [Fact]
+    public void An_old_file_renamed_into_the_inbox_is_ready_on_first_sight()
+    {
+        using var watcher = Watcher();
+        watcher.Start();
+        var part = Write("AP-9.csv.part", "batch\nAP-9\n");
+        File.SetLastWriteTimeUtc(part, _time.GetUtcNow().UtcDateTime.AddHours(-3));
+        Assert.Empty(watcher.TakeReady());
+
+        File.Move(part, Path.Combine(_inbox, "AP-9.csv"));
+        _time.Advance(Rescan);
+
+        // Only the rescan interval passed, far less than the settle interval.
+        Assert.Equal("AP-9.csv", Assert.Single(watcher.TakeReady()).Name);
+    }
+
+    [Theory]
+    [InlineData(0.0)]
+    [InlineData(0.5)]
+    [InlineData(1.9)]
+    public void A_recently_written_file_waits_until_its_last_write_is_settle_old(double ageSeconds)
+    {
+        var path = Write("recent.csv", "batch\n");
+        File.SetLastWriteTimeUtc(path, _time.GetUtcNow().UtcDateTime.AddSeconds(-ageSeconds));
+        using var watcher = Watcher();
+        Assert.Empty(watcher.TakeReady());
+
+        var remaining = Settle - TimeSpan.FromSeconds(ageSeconds);
+        _time.Advance(remaining - TimeSpan.FromMilliseconds(50));
+        Assert.Empty(watcher.TakeReady());
+        _time.Advance(TimeSpan.FromMilliseconds(50));
+
+        Assert.Single(watcher.TakeReady());
+    }
+
+    [Theory]
+    [InlineData(1)]
+    [InlineData(3600)]
+    public void A_last_write_time_in_the_future_counts_as_just_written(int aheadSeconds)
+    {
+        var path = Write("ahead.csv", "batch\n");
+        File.SetLastWriteTimeUtc(path, _time.GetUtcNow().UtcDateTime.AddSeconds(aheadSeconds));
+        using var watcher = Watcher();
+        Assert.Empty(watcher.TakeReady());
+
+        _time.Advance(Settle * 0.9);
+        Assert.Empty(watcher.TakeReady());
+        _time.Advance(Settle * 0.1);
+
+        Assert.Single(watcher.TakeReady());
+    }
+
+    [Fact]
+    public void A_slow_writer_whose_writes_stamp_the_current_time_is_never_taken_early()
+    {
+        var path = Write("slow.csv", "batch,recipe\n");
+        File.SetLastWriteTimeUtc(path, _time.GetUtcNow().UtcDateTime);
+        using var watcher = Watcher();
+        Assert.Empty(watcher.TakeReady());
+
+        for (var chunk = 0; chunk < 5; chunk++)
+        {
+            _time.Advance(Settle * 0.9);
+            File.AppendAllText(path, "AP-1,ANL-200\n");
+            File.SetLastWriteTimeUtc(path, _time.GetUtcNow().UtcDateTime);
+            Assert.Empty(watcher.TakeReady());
+        }
+
+        _time.Advance(Settle * 0.9);
+        Assert.Empty(watcher.TakeReady());
+        _time.Advance(Settle * 0.1);
+
+        Assert.Equal(new FileInfo(path).Length, Assert.Single(watcher.TakeReady()).Size);
+    }
+
+    [Theory]
+    [InlineData(3600)]
+    [InlineData(0)]
+    public void Draining_a_backlog_in_groups_costs_a_few_looks_per_file(int ageSeconds)
+    {
+        const int files = 1000;
+        const int group = 64;
+        var written = _time.GetUtcNow().UtcDateTime.AddSeconds(-ageSeconds);
+        var expected = new List<string>();
+        for (var i = 0; i < files; i++)
+        {
+            var name = $"f{(files - i).ToString("D4", System.Globalization.CultureInfo.InvariantCulture)}.csv";
+            File.SetLastWriteTimeUtc(Write(name, "batch\n"), written.AddMilliseconds(-(files - i)));
+            expected.Add(name);
+        }
+
+        var probe = new CountingProbe();
+        using var watcher = new InboxWatcher(new InboxOptions(_inbox, Settle, Rescan, useFileSystemEvents: false), _time, probe);
+        var taken = watcher.TakeReady(group).Select(f => f.Name).ToList();
+        if (ageSeconds < Settle.TotalSeconds)
+        {
+            Assert.Empty(taken);
+            _time.Advance(Settle);
+        }
+
+        Drain(watcher, taken);
+
+        Assert.Equal(expected, taken);
+        // Per file: one stat at discovery, one stat when its settle time is due (young backlog only), one
+        // exclusive open when found ready, one stat and one open when handed out. Looking at every waiting
+        // file for every group instead would cost about files * files / group looks (over 15,000 here).
+        Assert.InRange(probe.Looks, files, 5 * files);
+    }
+
+    private void Drain(InboxWatcher watcher, List<string> taken)
+    {
+        for (var calls = 0; calls < 100; calls++)
+        {
+            var batch = watcher.TakeReady(64);
+            Assert.True(batch.Count <= 64);
+            taken.AddRange(batch.Select(f => f.Name));
+            // Time passes while the consumer stores each group, so rescans run during the drain too.
+            _time.Advance(Rescan);
+            if (batch.Count == 0)
+            {
+                break;
+            }
+        }
     }
 
     private InboxWatcher Watcher() =>
