@@ -43,7 +43,7 @@ internal static class Targets
             {
                 var p95 = Median(latency["p95Seconds"]);
                 Add("steady-state p95 latency, default settings, < 1.5 s", p95, "s", p95 < 1.5,
-                    Inv($"settle interval {latency["settleSeconds"]} s: a file is taken only after it stayed unchanged that long"));
+                    Inv($"settle interval {latency["settleSeconds"]} s, counted from the file's last write: these files were written before they were renamed in"));
             }
         }
 
