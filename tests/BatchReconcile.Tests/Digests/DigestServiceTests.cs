@@ -8,6 +8,8 @@ using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Hosting;
 using Microsoft.Extensions.Time.Testing;
 
+using BatchReconcile.Tests.Support;
+
 namespace BatchReconcile.Tests.Digests;
 
 /// <summary>
@@ -16,8 +18,10 @@ namespace BatchReconcile.Tests.Digests;
 /// </summary>
 public sealed class DigestServiceTests : IDisposable
 {
-    private readonly string _root = Path.Combine(Path.GetTempPath(), "batchreconcile-tests", Guid.NewGuid().ToString("N"));
     private readonly FakeTimeProvider _clock = new(DateTimeOffset.Parse("2026-11-28T07:00:00+01:00", CultureInfo.InvariantCulture));
+    private readonly HostSandbox _sandbox;
+
+    public DigestServiceTests() => _sandbox = new HostSandbox(_clock);
 
     [Fact]
     public void Missed_days_are_written_on_start_the_due_day_at_its_time_and_none_twice()
@@ -90,7 +94,7 @@ public sealed class DigestServiceTests : IDisposable
     {
         var host = Start();
         var inbox = host.Services.GetRequiredService<DataFolders>().Inbox;
-        var samples = Path.Combine(RepositoryRoot(), "sample-data", "inbox");
+        var samples = Path.Combine(HostSandbox.RepositoryRoot, "sample-data", "inbox");
         var ready = new List<ReadyFile>();
         foreach (var file in Directory.GetFiles(samples, "*.csv").Order(StringComparer.Ordinal))
         {
@@ -103,38 +107,11 @@ public sealed class DigestServiceTests : IDisposable
         return host;
     }
 
-    private IHost Start()
-    {
-        var context = new AppContextOptions(Path.Combine(RepositoryRoot(), "config"), _root);
-        var host = AppHost.Build(context, service: true, quietConsole: true, time: _clock);
-        AppHost.Validate(host.Services);
-        return host;
-    }
+    private IHost Start() => _sandbox.Start(service: true);
 
     private static DateOnly[] Days(params string[] days) =>
         days.Select(d => DateOnly.ParseExact(d, "yyyy-MM-dd", CultureInfo.InvariantCulture)).ToArray();
 
-    private static string RepositoryRoot()
-    {
-        for (var dir = new DirectoryInfo(AppContext.BaseDirectory); dir is not null; dir = dir.Parent)
-        {
-            if (File.Exists(Path.Combine(dir.FullName, "BatchReconcile.sln")))
-            {
-                return dir.FullName;
-            }
-        }
 
-        throw new InvalidOperationException("BatchReconcile.sln not found");
-    }
-
-    public void Dispose()
-    {
-        try
-        {
-            Directory.Delete(_root, recursive: true);
-        }
-        catch (IOException)
-        {
-        }
-    }
+    public void Dispose() => _sandbox.Dispose();
 }

@@ -9,6 +9,8 @@ using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Hosting;
 using Microsoft.Extensions.Time.Testing;
 
+using BatchReconcile.Tests.Support;
+
 namespace BatchReconcile.Tests.Pipeline;
 
 /// <summary>
@@ -23,8 +25,10 @@ public sealed class LargeFileIngestTests : IDisposable
     private const int RowsPerBatch = 11;
     private const string SampleBatch = "KB3-PZ-0227";
 
-    private readonly string _root = Path.Combine(Path.GetTempPath(), "batchreconcile-tests", Guid.NewGuid().ToString("N"));
     private readonly FakeTimeProvider _clock = new(DateTimeOffset.Parse("2026-11-28T07:00:00+01:00", CultureInfo.InvariantCulture));
+    private readonly HostSandbox _sandbox;
+
+    public LargeFileIngestTests() => _sandbox = new HostSandbox(_clock);
 
     [Fact]
     public void Every_batch_of_a_large_valid_export_is_stored()
@@ -81,7 +85,7 @@ public sealed class LargeFileIngestTests : IDisposable
 
     private ReadyFile WriteExport(IHost host, string name, bool badLastRow)
     {
-        var sample = File.ReadAllLines(Path.Combine(RepositoryRoot(), "sample-data", "inbox", "2026-11-23T1012_KB3-PZ-0227.csv"), Encoding.UTF8);
+        var sample = File.ReadAllLines(Path.Combine(HostSandbox.RepositoryRoot, "sample-data", "inbox", "2026-11-23T1012_KB3-PZ-0227.csv"), Encoding.UTF8);
         var rows = sample.Skip(1).Where(l => l.Length > 0).ToArray();
         Assert.Equal(RowsPerBatch, rows.Length);
 
@@ -111,35 +115,8 @@ public sealed class LargeFileIngestTests : IDisposable
         return new ReadyFile(path, name, _clock.GetUtcNow(), info.Length, _clock.GetUtcNow());
     }
 
-    private IHost Start()
-    {
-        var context = new AppContextOptions(Path.Combine(RepositoryRoot(), "config"), _root);
-        var host = AppHost.Build(context, service: false, quietConsole: true, time: _clock);
-        AppHost.Validate(host.Services);
-        return host;
-    }
+    private IHost Start() => _sandbox.Start(service: false);
 
-    private static string RepositoryRoot()
-    {
-        for (var dir = new DirectoryInfo(AppContext.BaseDirectory); dir is not null; dir = dir.Parent)
-        {
-            if (File.Exists(Path.Combine(dir.FullName, "BatchReconcile.sln")))
-            {
-                return dir.FullName;
-            }
-        }
 
-        throw new InvalidOperationException("BatchReconcile.sln not found");
-    }
-
-    public void Dispose()
-    {
-        try
-        {
-            Directory.Delete(_root, recursive: true);
-        }
-        catch (IOException)
-        {
-        }
-    }
+    public void Dispose() => _sandbox.Dispose();
 }
