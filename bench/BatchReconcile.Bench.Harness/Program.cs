@@ -39,7 +39,7 @@ try
 
         case "measure":
         {
-            var work = Path.Combine(repo, "bench", "work");
+            var work = Path.Combine(repo, "bench", "scratch");
             var quick = options.Flag("quick");
             var baseOptions = quick ? SuiteOptions.ForQuick(repo, work) : new SuiteOptions { Repo = repo, Work = work };
             var suite = baseOptions with

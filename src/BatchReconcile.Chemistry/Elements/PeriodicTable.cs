@@ -3,7 +3,7 @@
 // 1.0080); elements whose standard atomic weight is an interval use the conventional abridged value
 // (H 1.008, Li 6.94, B 10.81, C 12.011, N 14.007, O 15.999, Mg 24.305, Si 28.085, S 32.06, Cl 35.45,
 // Ar 39.95, Br 79.904, Tl 204.38, Pb 207.2). Elements without a standard atomic weight are left out on
-// purpose. The tests check every value against a transcription of that table and against the npm
+// purpose. The tests check every value against a copy of that table and against the npm
 // package chemical-elements.
 // D and T: atomic masses of 2H and 3H from the Atomic Mass Evaluation AME2020 (M. Wang et al., Chinese
 // Physics C 45 (2021) 030003) as used by CIAAW: 2.014101777844 and 3.01604928132. (NIST's "Atomic

@@ -8,7 +8,7 @@ public class PeriodicTableTests
     // Independent copy, typed separately from the production table, digits as printed in the source.
     // Source: CIAAW standard atomic weights 2021, abridged values (Prohaska et al., "Standard atomic
     // weights of the elements 2021", Pure Appl. Chem. 94 (2022) 573, Table 1), read from the
-    // transcription in the public repository MilanSkocic/ciaaw, file data/src/saw_2021.txt (column
+    // copy in the public repository MilanSkocic/ciaaw, file data/src/saw_2021.txt (column
     // "asaw"). Every one of the 84 values below was compared with it and agrees; the source prints
     // hydrogen as 1.0080. Cross-checks: the 2021 changes listed in the abstract of Prohaska et al. 2022
     // (stored copy of the De Gruyter page: Ar and Pb become intervals, Hf 178.486 ± 0.006,
@@ -161,7 +161,7 @@ public class PeriodicTableTests
     }
 
     [Theory]
-    // Elements with no standard atomic weight (CIAAW 2021; "nan" rows of the transcription cited above):
+    // Elements with no standard atomic weight (CIAAW 2021; "nan" rows of the copy cited above):
     // no stable isotope and no characteristic terrestrial composition.
     [InlineData("Tc")]
     [InlineData("Pm")]
