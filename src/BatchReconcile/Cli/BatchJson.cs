@@ -1,6 +1,7 @@
 using BatchReconcile.Reconciliation.Flags;
 using BatchReconcile.Reconciliation.Outcomes;
 using BatchReconcile.Records.Definitions;
+using BatchReconcile.Records.Exports;
 using BatchReconcile.Storage.Queries;
 
 namespace BatchReconcile.Cli;
@@ -31,6 +32,12 @@ public static class BatchJson
         IReadOnlyDictionary<string, double> Equivalents,
         IReadOnlyList<LadderJson> Ladder,
         IReadOnlyList<FlagJson> Flags);
+
+    /// <summary>One problem of an export file, as <c>ingest --json</c> and <c>check --json</c> print it.</summary>
+    public sealed record ErrorJson(int Line, string Column, string Value, string Message)
+    {
+        public static ErrorJson From(ExportError e) => new(e.Line, e.Column, e.Value, e.Reason);
+    }
 
     public sealed record LadderJson(string Rung, string Label, double Kg, double PctOfCharged);
 
@@ -88,8 +95,7 @@ public static class BatchJson
         flags);
 
     /// <summary>Masses to 0.001 kg and percentages to 0.001 %: enough for a balance read to 1 g, without binary noise.</summary>
-    private static double Round(double value, int digits = 3) =>
-        double.IsFinite(value) && Math.Abs(value) < 1e15 ? (double)Math.Round((decimal)value, digits, MidpointRounding.ToEven) : value;
+    private static double Round(double value, int digits = 3) => Rounding.To(value, digits);
 
     private static double? Round(double? value, int digits = 3) => value is { } v ? Round(v, digits) : null;
 }

@@ -30,7 +30,7 @@ public static class CheckCommand
                 JsonOutput.Write(stdout, new CheckJson(
                     read.FileName,
                     read.IsValid,
-                    read.Errors.Select(e => new CheckErrorJson(e.Line, e.Column, e.Value, e.Reason)).ToList(),
+                    read.Errors.Select(BatchJson.ErrorJson.From).ToList(),
                     batches.Select(ToJson).ToList()));
             }
             else if (read.IsValid)
@@ -70,9 +70,7 @@ public static class CheckCommand
         b.Outcome.Batch.Warnings,
         b.Outcome.Steps.Select(s => BatchJson.Step(s, s.Flags.Select(f => BatchJson.Flag(f, null)).ToList())).ToList());
 
-    private sealed record CheckJson(string File, bool Valid, IReadOnlyList<CheckErrorJson> Errors, IReadOnlyList<CheckBatchJson> Batches);
-
-    private sealed record CheckErrorJson(int Line, string Column, string Value, string Message);
+    private sealed record CheckJson(string File, bool Valid, IReadOnlyList<BatchJson.ErrorJson> Errors, IReadOnlyList<CheckBatchJson> Batches);
 
     private sealed record CheckBatchJson(string Batch, string Recipe, int RecipeVersion, string ProductionDay, IReadOnlyList<string> Warnings, IReadOnlyList<BatchJson.StepJson> Steps);
 }

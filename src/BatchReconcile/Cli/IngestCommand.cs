@@ -125,9 +125,7 @@ public static class IngestCommand
         o.Sha256,
         o.Outcome.ToText(),
         o.Batches.Select(b => b.BatchId).ToList(),
-        o.Errors.Select(e => new IngestErrorJson(e.Line, e.Column, e.Value, e.Reason)).ToList());
+        o.Errors.Select(BatchJson.ErrorJson.From).ToList());
 
-    private sealed record IngestFileJson(string File, string Sha256, string Outcome, IReadOnlyList<string> Batches, IReadOnlyList<IngestErrorJson> Errors);
-
-    private sealed record IngestErrorJson(int Line, string Column, string Value, string Message);
+    private sealed record IngestFileJson(string File, string Sha256, string Outcome, IReadOnlyList<string> Batches, IReadOnlyList<BatchJson.ErrorJson> Errors);
 }

@@ -9,6 +9,9 @@ namespace BatchReconcile.Cli;
 /// </remarks>
 public static class Rounding
 {
-    public static double Hundredths(double value) =>
-        double.IsFinite(value) && Math.Abs(value) < 1e15 ? (double)Math.Round((decimal)value, 2, MidpointRounding.ToEven) : value;
+    public static double Hundredths(double value) => To(value, 2);
+
+    /// <summary>Rounds to <paramref name="digits"/> decimals the same way; values too large for decimal are left as they are.</summary>
+    public static double To(double value, int digits) =>
+        double.IsFinite(value) && Math.Abs(value) < 1e15 ? (double)Math.Round((decimal)value, digits, MidpointRounding.ToEven) : value;
 }
