@@ -120,7 +120,7 @@ public sealed partial class BatchStore
                 throw new ArgumentException($"Batch {batch.BatchId} appears twice in {file.FileName}.", nameof(batch));
             }
 
-            var (plan, batchRef, currentRef) = PlanBatch(sql.FindBatch, batch.Outcome.Batch);
+            var (plan, batchRef, currentRef) = PlanBatch(sql.FindBatch, batch.Outcome.Batch.BatchId, batch.ContentSha256);
             var result = plan.Disposition == BatchDisposition.Unchanged
                 ? new BatchCommitResult(plan.BatchId, plan.Disposition, plan.Revision, [])
                 : StoreRevision(sql, file, ingestId, batch, plan, batchRef, currentRef, now);
@@ -198,10 +198,8 @@ public sealed partial class BatchStore
             CloseFlagsOfSuperseded(sql, old, record.BatchId, plan.Revision, file.FileName, now);
         }
 
-        foreach (var row in record.Rows)
-        {
-            sql.InsertRawRow.Set("$revision", revisionId).Set("$line", row.Line).Set("$fields", StoreJson.RawFields(row.Raw)).Execute();
-        }
+        var raw = batch.RawRows;
+        sql.InsertRawRows.Set("$revision", revisionId).Set("$header", raw.Header).Set("$lines", raw.Lines).Execute();
 
         var flagIds = new List<long>();
         var order = 0;

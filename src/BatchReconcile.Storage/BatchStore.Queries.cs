@@ -94,13 +94,9 @@ public sealed partial class BatchStore
 
             using var rows = new PreparedCommand(_connection, null, StoreQueries.RawRowsOfRevision, ("$revision", SqliteType.Integer));
             using var rowReader = rows.Set("$revision", revisionId).Read();
-            var list = new List<RawRowView>();
-            while (rowReader.Read())
-            {
-                list.Add(new RawRowView(rowReader.GetInt32(0), StoreJson.ParseRawFields(rowReader.GetString(1))));
-            }
-
-            return list;
+            return rowReader.Read()
+                ? RawRowsJson.Decode(rowReader.GetString(0), rowReader.GetString(1)).OrderBy(r => r.Line).Select(r => new RawRowView(r.Line, r.Fields)).ToList()
+                : [];
         }
     }
 

@@ -89,7 +89,7 @@ public sealed partial class BatchStore : IDisposable
             }
 
             using var findBatch = new PreparedCommand(_connection, null, CommitStatements.FindBatchSql, ("$batch", SqliteType.Text));
-            return new IngestPlan(null, batches.Select(b => PlanBatch(findBatch, b).Plan).ToList());
+            return new IngestPlan(null, batches.Select(b => PlanBatch(findBatch, b.BatchId, BatchContentHash.Compute(b)).Plan).ToList());
         }
     }
 
@@ -125,13 +125,12 @@ public sealed partial class BatchStore : IDisposable
     }
 
     /// <summary>Compares a batch with its current stored revision.</summary>
-    private static (BatchPlan Plan, long? BatchRef, long? CurrentRevisionRef) PlanBatch(PreparedCommand findBatch, BatchRecord batch)
+    private static (BatchPlan Plan, long? BatchRef, long? CurrentRevisionRef) PlanBatch(PreparedCommand findBatch, string batchId, string content)
     {
-        var content = BatchContentHash.Compute(batch);
-        using var reader = findBatch.Set("$batch", batch.BatchId).Read();
+        using var reader = findBatch.Set("$batch", batchId).Read();
         if (!reader.Read())
         {
-            return (new BatchPlan(batch.BatchId, BatchDisposition.New, 1, content), null, null);
+            return (new BatchPlan(batchId, BatchDisposition.New, 1, content), null, null);
         }
 
         var batchRef = reader.GetInt64(0);
@@ -139,15 +138,15 @@ public sealed partial class BatchStore : IDisposable
         {
             // Kept as a bug rather than healed: the unique index allows at most one current revision
             // and the commit always writes one, so a batch without one means the file was edited by hand.
-            throw new InvalidDataException($"Batch {batch.BatchId} is stored without a current revision.");
+            throw new InvalidDataException($"Batch {batchId} is stored without a current revision.");
         }
 
         var revisionRef = reader.GetInt64(1);
         var revision = reader.GetInt32(2);
         var storedContent = reader.GetString(3);
         var plan = string.Equals(storedContent, content, StringComparison.Ordinal)
-            ? new BatchPlan(batch.BatchId, BatchDisposition.Unchanged, revision, content)
-            : new BatchPlan(batch.BatchId, BatchDisposition.Revision, revision + 1, content);
+            ? new BatchPlan(batchId, BatchDisposition.Unchanged, revision, content)
+            : new BatchPlan(batchId, BatchDisposition.Revision, revision + 1, content);
         return (plan, batchRef, revisionRef);
     }
 

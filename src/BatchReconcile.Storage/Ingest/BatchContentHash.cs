@@ -1,6 +1,6 @@
+using System.Buffers;
 using System.Globalization;
 using System.Security.Cryptography;
-using System.Text;
 using System.Text.Json;
 using BatchReconcile.Records.Exports;
 
@@ -23,40 +23,82 @@ namespace BatchReconcile.Storage.Ingest;
 /// Left out on purpose: line numbers, column order, quoting, line ends, columns outside the
 /// contract, and the order of rows (a sum does not depend on it). A change to any contract value
 /// makes a new revision; so does a change of recipe version, since it changes the reconciliation.
+/// <para>Written with <see cref="Utf8JsonWriter"/> and its default encoder, which escapes everything
+/// outside printable ASCII, so each line is ASCII and ordinal order of the bytes is ordinal order of the
+/// text. The bytes are those the first implementation (JsonSerializer over object arrays) produced; the
+/// tests pin hashes it computed, since stored revisions are compared with new exports by this hash.</para>
 /// </remarks>
 public static class BatchContentHash
 {
-    private const string FormVersion = "batch-content/1";
+    private static ReadOnlySpan<byte> FormVersion => "batch-content/1"u8;
 
     public static string Compute(BatchRecord batch)
     {
         ArgumentNullException.ThrowIfNull(batch);
-        var rows = batch.Rows.Select(CanonicalRow).ToList();
-        rows.Sort(StringComparer.Ordinal);
+        var buffer = new ArrayBufferWriter<byte>(256 + (batch.Rows.Count * 160));
+        using var writer = new Utf8JsonWriter(buffer);
 
-        var text = new StringBuilder();
-        text.Append(FormVersion).Append('\n');
-        text.Append(JsonSerializer.Serialize(new object[] { batch.BatchId, batch.RecipeCode, batch.RecipeVersion }));
-        foreach (var row in rows)
+        writer.WriteStartArray();
+        writer.WriteStringValue(batch.BatchId);
+        writer.WriteStringValue(batch.RecipeCode);
+        writer.WriteNumberValue(batch.RecipeVersion);
+        writer.WriteEndArray();
+        writer.Flush();
+        var identity = buffer.WrittenCount;
+
+        // Each row's line is written after the previous one into the same buffer; only their bounds are kept.
+        var lines = new (int Start, int Length)[batch.Rows.Count];
+        for (var i = 0; i < lines.Length; i++)
         {
-            text.Append('\n').Append(row);
+            writer.Reset();
+            var start = buffer.WrittenCount;
+            WriteRow(writer, batch.Rows[i]);
+            writer.Flush();
+            lines[i] = (start, buffer.WrittenCount - start);
         }
 
-        return Convert.ToHexStringLower(SHA256.HashData(Encoding.UTF8.GetBytes(text.ToString())));
+        var written = buffer.WrittenMemory;
+        Array.Sort(lines, (a, b) => written.Span.Slice(a.Start, a.Length).SequenceCompareTo(written.Span.Slice(b.Start, b.Length)));
+
+        using var hash = IncrementalHash.CreateHash(HashAlgorithmName.SHA256);
+        hash.AppendData(FormVersion);
+        hash.AppendData("\n"u8);
+        hash.AppendData(written.Span[..identity]);
+        foreach (var (start, length) in lines)
+        {
+            hash.AppendData("\n"u8);
+            hash.AppendData(written.Span.Slice(start, length));
+        }
+
+        return Convert.ToHexStringLower(hash.GetHashAndReset());
     }
 
-    private static string CanonicalRow(RecordRow row) => JsonSerializer.Serialize(new object?[]
+    private static void WriteRow(Utf8JsonWriter writer, RecordRow row)
     {
-        row.Step,
-        row.Entry.ToString().ToLowerInvariant(),
-        row.Material,
-        row.Stream,
-        Number(row.Quantity),
-        row.Unit?.Symbol.ToLowerInvariant(),
-        Number(row.AssayPct),
-        row.Lot,
-        row.RecordedAt?.UtcDateTime.ToString("yyyy-MM-dd'T'HH:mm:ss.fffffff'Z'", CultureInfo.InvariantCulture),
-    });
+        writer.WriteStartArray();
+        writer.WriteStringValue(row.Step);
+        writer.WriteStringValue(row.Entry.ToString().ToLowerInvariant());
+        WriteTextOrNull(writer, row.Material);
+        WriteTextOrNull(writer, row.Stream);
+        WriteTextOrNull(writer, Number(row.Quantity));
+        WriteTextOrNull(writer, row.Unit?.Symbol.ToLowerInvariant());
+        WriteTextOrNull(writer, Number(row.AssayPct));
+        WriteTextOrNull(writer, row.Lot);
+        WriteTextOrNull(writer, row.RecordedAt?.UtcDateTime.ToString("yyyy-MM-dd'T'HH:mm:ss.fffffff'Z'", CultureInfo.InvariantCulture));
+        writer.WriteEndArray();
+    }
+
+    private static void WriteTextOrNull(Utf8JsonWriter writer, string? value)
+    {
+        if (value is null)
+        {
+            writer.WriteNullValue();
+        }
+        else
+        {
+            writer.WriteStringValue(value);
+        }
+    }
 
     private static string? Number(double? value) => value?.ToString("R", CultureInfo.InvariantCulture);
 }

@@ -13,6 +13,7 @@ public static class Migrations
         new(2, "query support: production day and recipe copied onto flags and step results, indexes", V2QuerySupport),
         new(3, "append-only audit trail", V3AuditTrail),
         new(4, "review trail: flag review state, hash-chained audit entries, digest records, day indexes", V4ReviewTrail, ReviewTrailBackfill.Run, V4Finish),
+        new(5, "raw rows: one record per batch revision (header once, then the lines) instead of one per row", V5RawRowsPerRevision, RawRowsRepack.Run, V5Finish),
     ];
 
     public static int Latest => All[^1].Version;
@@ -229,6 +230,22 @@ public static class Migrations
         BEGIN
             SELECT RAISE(ABORT, 'audit_event is append-only');
         END;
+        """;
+
+    // Storing a batch wrote one record per row of its file, each with its column names: most of a
+    // backlog's statements and a third of the database. The header is now kept once per revision.
+    // Both columns hold JSON arrays written by RawRowsJson; no json_valid() check, which would parse
+    // every batch's rows a second time on the write path.
+    private const string V5RawRowsPerRevision = """
+        CREATE TABLE raw_rows (
+            revision_ref INTEGER PRIMARY KEY REFERENCES batch_revision (id),
+            header       TEXT NOT NULL,
+            lines        TEXT NOT NULL
+        );
+        """;
+
+    private const string V5Finish = """
+        DROP TABLE raw_row;
         """;
 
     private const string GenesisHash = "0000000000000000000000000000000000000000000000000000000000000000";

@@ -59,9 +59,9 @@ internal sealed class CommitStatements : IDisposable
             ("$new", I), ("$old", I));
         RetireFlags = Make("UPDATE flag SET is_current = 0 WHERE revision_ref = $old", ("$old", I));
         RetireSteps = Make("UPDATE step_result SET is_current = 0 WHERE revision_ref = $old", ("$old", I));
-        InsertRawRow = Make(
-            "INSERT INTO raw_row (revision_ref, line, fields) VALUES ($revision, $line, $fields)",
-            ("$revision", I), ("$line", I), ("$fields", T));
+        InsertRawRows = Make(
+            "INSERT INTO raw_rows (revision_ref, header, lines) VALUES ($revision, $header, $lines)",
+            ("$revision", I), ("$header", T), ("$lines", T));
         InsertStep = Make(
             """
             INSERT INTO step_result (
@@ -115,7 +115,7 @@ internal sealed class CommitStatements : IDisposable
 
     public PreparedCommand RetireSteps { get; }
 
-    public PreparedCommand InsertRawRow { get; }
+    public PreparedCommand InsertRawRows { get; }
 
     public PreparedCommand InsertStep { get; }
 

@@ -3,7 +3,7 @@ using BatchReconcile.Reconciliation.Outcomes;
 
 namespace BatchReconcile.Storage.Sql;
 
-/// <summary>The JSON held in text columns: equivalents, loss ladders, raw rows and audit details.</summary>
+/// <summary>The JSON held in text columns: equivalents, loss ladders and audit details (raw rows: <see cref="RawRowsJson"/>).</summary>
 internal static class StoreJson
 {
     private static readonly JsonSerializerOptions Options = new()
@@ -23,10 +23,7 @@ internal static class StoreJson
     public static IReadOnlyList<LadderRung> ParseLadder(string json) =>
         JsonSerializer.Deserialize<List<LadderRung>>(json, Options) ?? [];
 
-    /// <summary>Columns in header order as [name, value] pairs (an object would lose the order).</summary>
-    public static string RawFields(IReadOnlyList<KeyValuePair<string, string>> fields) =>
-        JsonSerializer.Serialize(fields.Select(f => new[] { f.Key, f.Value }), Options);
-
+    /// <summary>One row as schema versions 1 to 4 stored it: [name, value] pairs in header order (read by migration 5).</summary>
     public static IReadOnlyList<KeyValuePair<string, string>> ParseRawFields(string json) =>
         (JsonSerializer.Deserialize<List<string[]>>(json, Options) ?? [])
             .Select(p => new KeyValuePair<string, string>(p[0], p[1]))

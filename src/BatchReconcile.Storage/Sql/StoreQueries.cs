@@ -72,7 +72,7 @@ internal static class StoreQueries
         ORDER BY s.recipe, 3, s.step
         """;
 
-    public const string RawRowsOfRevision = "SELECT line, fields FROM raw_row WHERE revision_ref = $revision ORDER BY line";
+    public const string RawRowsOfRevision = "SELECT header, lines FROM raw_rows WHERE revision_ref = $revision";
 
     public const string StepHistory = StepHistorySelect + "\n" + StepHistoryOrder;
 

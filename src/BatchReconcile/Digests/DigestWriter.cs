@@ -1,3 +1,4 @@
+using System.Globalization;
 using BatchReconcile.Digest.Files;
 using BatchReconcile.Digest.Model;
 using BatchReconcile.Digest.Rendering;
@@ -67,13 +68,15 @@ public sealed class DigestWriter(
             return new DigestWriteResult(day, false, false, paths, data.Exceptions.Count, record.Refusal);
         }
 
+        // The day as ISO text: a DateOnly would be rendered by the logger as MM/dd/yyyy.
+        var dayText = day.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture);
         if (existing is not null)
         {
-            logger.LogWarning("Digest of {Day} rewritten at the request of {By} ({Flags} flags): {Files}", day, by, data.Exceptions.Count, paths);
+            logger.LogWarning("Digest of {Day} rewritten at the request of {By} ({Flags} flags): {Files}", dayText, by, data.Exceptions.Count, paths);
         }
         else
         {
-            logger.LogInformation("Digest of {Day} written ({Flags} flags): {Files}", day, data.Exceptions.Count, paths);
+            logger.LogInformation("Digest of {Day} written ({Flags} flags): {Files}", dayText, data.Exceptions.Count, paths);
         }
 
         return new DigestWriteResult(day, true, existing is not null, paths, data.Exceptions.Count, null);

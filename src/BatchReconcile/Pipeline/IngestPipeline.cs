@@ -1,3 +1,4 @@
+using System.Security.Cryptography;
 using BatchReconcile.Intake;
 using BatchReconcile.Intake.Archive;
 using BatchReconcile.Intake.Inbox;
@@ -33,38 +34,65 @@ public sealed class IngestPipeline(
     TimeProvider time,
     ILogger<IngestPipeline> logger)
 {
+    /// <summary>Files up to this size are read once, into memory: the hash and both passes of the reader
+    /// work on the same bytes (a group holds at most its file count times this).</summary>
+    public const int InMemoryMaxBytes = 64 * 1024;
+
     /// <summary>Processes a group of ready files in one transaction; returns one outcome per file, in order.</summary>
+    /// <remarks>New files are read and reconciled on a second thread (<see cref="ReadAhead"/>) while the
+    /// store writes the batches of the files before them; the store still takes them one by one, in order.</remarks>
     public IReadOnlyList<FileOutcome> Process(IReadOnlyList<ReadyFile> files, CancellationToken cancellation = default)
     {
+        IReadOnlyList<FileCommitResult> results;
         var prepared = new List<PreparedFile>(files.Count);
-        foreach (var file in files)
+        using (var readAhead = new ReadAhead())
         {
+            foreach (var file in files)
+            {
+                cancellation.ThrowIfCancellationRequested();
+                prepared.Add(Prepare(file, readAhead));
+            }
+
+            readAhead.Complete();
+
+            // Nothing is stored or moved once the group is prepared unless all of it is committed.
             cancellation.ThrowIfCancellationRequested();
-            prepared.Add(Prepare(file));
+            results = store.Commit(prepared.Select(p => p.Ingest).ToList());
         }
 
-        // Nothing is stored or moved once the group is prepared unless all of it is committed.
-        cancellation.ThrowIfCancellationRequested();
-        var results = store.Commit(prepared.Select(p => p.Ingest).ToList());
+        // The read-ahead has stopped: no file of the group is read while it is moved.
         return prepared.Zip(results, Settle).ToList();
     }
 
     /// <summary>
-    /// Hashes one file and decides how it is to be stored; stores nothing. A new file is not read here:
-    /// it is read, reconciled and stored batch by batch inside the commit (<see cref="FileIngest.Streamed"/>).
+    /// Hashes one file and decides how it is to be stored; stores nothing. A new file is not stored here:
+    /// it is read and reconciled by <paramref name="readAhead"/> and stored batch by batch inside the
+    /// commit (<see cref="FileIngest.Streamed"/>).
     /// </summary>
     /// <remarks>
-    /// Every new file, small or large, takes the streamed path: one path to keep right, and for a small
-    /// file it does the same work as reading it whole first, only later. The price is that reading and
-    /// reconciling now happen inside the group's write transaction, which therefore lasts longer.
+    /// Every new file, small or large, takes the streamed path: one path to keep right. A small file is
+    /// read once, into memory, so the bytes that are hashed are the bytes that are read; a larger one is
+    /// hashed and then read again from the disk, holding about one batch at a time.
     /// </remarks>
-    public PreparedFile Prepare(ReadyFile file)
+    private PreparedFile Prepare(ReadyFile file, ReadAhead readAhead)
     {
-        var sha256 = FileHash.Sha256Of(file.FullPath);
+        byte[]? content = null;
+        string sha256;
+        if (file.Size <= InMemoryMaxBytes)
+        {
+            content = File.ReadAllBytes(file.FullPath);
+            sha256 = Convert.ToHexStringLower(SHA256.HashData(content));
+        }
+        else
+        {
+            sha256 = FileHash.Sha256Of(file.FullPath);
+        }
+
         var known = store.FindFile(sha256);
         if (known is null)
         {
-            return new PreparedFile(file, FileIngest.Streamed(file.Name, sha256, file.ArrivedAt, storeBatch => Produce(file, sha256, storeBatch)), null);
+            var index = readAhead.Add(storeBatch => Produce(file, content, sha256, storeBatch));
+            return new PreparedFile(file, FileIngest.Streamed(file.Name, sha256, file.ArrivedAt, storeBatch => readAhead.Consume(index, storeBatch)), null);
         }
 
         if (known.Outcome != IngestOutcome.Quarantined)
@@ -75,7 +103,7 @@ public sealed class IngestPipeline(
 
         // Same bytes as a file quarantined before: logged as a duplicate and sent back to quarantine
         // with a fresh report, so only its errors are wanted; its batches are dropped as they are read.
-        var scan = ExportReader.Scan(file.FullPath, file.Name, catalog.Current, static _ => { });
+        var scan = Scan(file, content, catalog.Current, static _ => { });
         var ingest = scan.IsValid
             ? FileIngest.Accepted(file.Name, sha256, file.ArrivedAt, [])
             : FileIngest.Quarantined(file.Name, sha256, file.ArrivedAt, scan.Errors, QuarantineReport.Render(file.Name, sha256, scan.Errors, time.GetUtcNow()));
@@ -91,16 +119,16 @@ public sealed class IngestPipeline(
         return (read, batches);
     }
 
-    /// <summary>Called by the store inside the file's savepoint: hands each batch over, reconciled, as
-    /// soon as its last row is read. An error found later makes the store roll back what it stored.</summary>
-    private StreamedFileEnd Produce(ReadyFile file, string sha256, Action<BatchIngest> storeBatch)
+    /// <summary>Reads the file and hands each batch over, reconciled, as soon as its last row is read (the
+    /// store writes it inside the file's savepoint). An error found later makes the store roll back what it stored.</summary>
+    private StreamedFileEnd Produce(ReadyFile file, byte[]? content, string sha256, Action<BatchIngest> storeBatch)
     {
         // One snapshot of the definitions for the whole file, so that a reload meanwhile cannot read
         // one part of the file against one version of them and reconcile another against the next.
         var current = catalog.Current;
         try
         {
-            var scan = ExportReader.Scan(file.FullPath, file.Name, current, batch => storeBatch(ReconcileOrFault(batch, current, file.ArrivedAt)));
+            var scan = Scan(file, content, current, batch => storeBatch(ReconcileOrFault(batch, current, file.ArrivedAt).Precompute()));
             return scan.IsValid
                 ? StreamedFileEnd.Valid
                 : StreamedFileEnd.Rejected(scan.Errors, QuarantineReport.Render(file.Name, sha256, scan.Errors, time.GetUtcNow()));
@@ -113,6 +141,17 @@ public sealed class IngestPipeline(
             ExportError[] errors = [new ExportError(file.Name, 0, string.Empty, string.Empty, $"internal error while reconciling ({fault.InnerException!.GetType().Name}: {fault.Message}); nothing was stored, please report this file")];
             return StreamedFileEnd.Rejected(errors, QuarantineReport.Render(file.Name, sha256, errors, time.GetUtcNow()));
         }
+    }
+
+    private static ExportScanResult Scan(ReadyFile file, byte[]? content, ProcessCatalog current, Action<BatchRecord> onBatch)
+    {
+        if (content is null)
+        {
+            return ExportReader.Scan(file.FullPath, file.Name, current, onBatch);
+        }
+
+        using var stream = new MemoryStream(content, writable: false);
+        return ExportReader.Scan(stream, file.Name, current, onBatch);
     }
 
     private BatchIngest ReconcileOrFault(BatchRecord batch, ProcessCatalog current, DateTimeOffset arrivedAt)

@@ -65,7 +65,7 @@ public sealed class DataRoot(string path)
 
     /// <summary>Rows in the tables that hold stored batches; 0 when nothing of any file was stored.</summary>
     public long StoredRowCount() =>
-        Scalar("SELECT (SELECT COUNT(*) FROM batch) + (SELECT COUNT(*) FROM batch_revision) + (SELECT COUNT(*) FROM raw_row) + (SELECT COUNT(*) FROM step_result) + (SELECT COUNT(*) FROM flag)");
+        Scalar("SELECT (SELECT COUNT(*) FROM batch) + (SELECT COUNT(*) FROM batch_revision) + (SELECT COUNT(*) FROM raw_rows) + (SELECT COUNT(*) FROM step_result) + (SELECT COUNT(*) FROM flag)");
 
     private SqliteConnection Open()
     {

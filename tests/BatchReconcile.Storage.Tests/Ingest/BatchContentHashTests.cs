@@ -41,6 +41,37 @@ public sealed class BatchContentHashTests
         Assert.True(BatchContentHash.Compute(Original) != BatchContentHash.Compute(other), change);
     }
 
+    /// <summary>
+    /// The hashes of stored revisions are compared with those of new exports: any change to the canonical
+    /// form (escaping, number form, order) would make every re-export of an unchanged batch a new revision.
+    /// The values were computed by the first implementation (JsonSerializer over object arrays) and are pinned.
+    /// </summary>
+    [Theory]
+    [MemberData(nameof(Pinned))]
+    public void The_canonical_form_does_not_change(string name, BatchRecord batch, string expected)
+    {
+        Assert.True(expected == BatchContentHash.Compute(batch), name + ": " + BatchContentHash.Compute(batch));
+    }
+
+    public static TheoryData<string, BatchRecord, string> Pinned() => new()
+    {
+        { "two-step batch", Original, "3eb0746ab4f6b94095932e130f92f1c97b538914cebe7b3932a1f32be9bf4082" },
+        { "text that JSON escapes", Escaping, "01a3ef32ad33a2f978bf3a78ac9a1aee3a616b7f37597602dc0a750729713a87" },
+    };
+
+    /// <summary>Quotes, backslash, markup characters, non-ASCII letters, a control character and a symbol outside the BMP.</summary>
+    private static readonly BatchRecord Escaping = Original with
+    {
+        BatchId = "BZ-\"Ä\"<&>'+",
+        Rows = Original.Rows.Select((r, i) => r with
+        {
+            Stream = i == 4 ? "Mutterlauge \\ ß\t𝛼" : r.Stream,
+            Lot = i == 0 ? "lot-é/1" : null,
+            AssayPct = i == 1 ? 99.125 : null,
+            Quantity = i == 2 ? 1e-7 : r.Quantity,
+        }).ToList(),
+    };
+
     [Fact]
     public void The_hash_is_64_lower_case_hex_digits()
     {

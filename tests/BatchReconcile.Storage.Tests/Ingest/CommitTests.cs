@@ -154,7 +154,7 @@ public sealed class CommitTests
         var result = Assert.Single(store.Commit([Build.Quarantined("bad.csv", errors: 3)]));
 
         Assert.Equal((IngestOutcome.Quarantined, 3), (result.Outcome, result.ErrorCount));
-        foreach (var table in new[] { "batch", "batch_revision", "raw_row", "step_result", "flag" })
+        foreach (var table in new[] { "batch", "batch_revision", "raw_rows", "step_result", "flag" })
         {
             Assert.Equal(0, Db.Count(store.Connection, table));
         }

@@ -49,7 +49,7 @@ public sealed class GroupCommitTests
         Assert.Equal(3, Db.Count(store.Connection, "batch_revision"));
         Assert.Equal(6, Db.Count(store.Connection, "step_result"));
         Assert.Equal(2, Db.Count(store.Connection, "flag"));
-        Assert.Equal(30, Db.Count(store.Connection, "raw_row"));
+        Assert.Equal(30, Db.RawLineCount(store.Connection));
 
         // Once the broken file is fixed and sent again, it goes in.
         var retry = Assert.Single(store.Commit([Build.File("f3.csv", good, Build.Ingest(Build.Batch("BZ-302"), Build.Day1))]));

@@ -14,6 +14,10 @@ internal static class Db
         return Convert.ToInt64(command.ExecuteScalar(), CultureInfo.InvariantCulture);
     }
 
+    /// <summary>Lines of raw rows stored, over all revisions (one <c>raw_rows</c> record holds a revision's lines).</summary>
+    public static long RawLineCount(SqliteConnection connection) =>
+        long.Parse(Scalar(connection, "SELECT coalesce(sum(json_array_length(lines)), 0) FROM raw_rows")!, System.Globalization.CultureInfo.InvariantCulture);
+
     public static string? Scalar(SqliteConnection connection, string sql)
     {
         using var command = connection.CreateCommand();
