@@ -16,17 +16,17 @@ internal static class Report
         var m = r["machine"]!;
         s.AppendLine(Inv($"Measured {m["dateUtc"]} on commit `{m["commit"]}`{(m["srcDirty"]!.GetValue<bool>() ? " (with uncommitted changes in src/)" : "")}: {m["nproc"]} cores, {m["cpu"]}, {m["ramGb"]} GB RAM, {m["os"]}, .NET {m["dotnet"]}, sqlite3 {m["sqlite3"]}."));
         s.AppendLine();
-        s.AppendLine(Inv($"Command: `{r["command"]}`. Figures are medians [min-max] of the number of runs given; \"x floor\" is the program's time divided by the sqlite3 shell's `.import` of the same rows into one bare table in one transaction."));
+        s.AppendLine(Inv($"Command: `{r["command"]}`. Program measured: {r["build"]}, run as `dotnet batchreconcile.dll`. Figures are medians [min-max] of the number of runs given; \"x floor\" is the program's time divided by the sqlite3 shell's `.import` of the same rows into one bare table in one transaction."));
         s.AppendLine();
         s.AppendLine("### Backlog (files already in the inbox)");
         s.AppendLine();
-        s.AppendLine("| files | rows | MB | runs | floor (sqlite3 .import) | `ingest FOLDER` | files/s | rows/s | x floor | peak RSS | `run` until drained | files/s | rows/s | x floor | peak RSS | DB bytes / batch |");
-        s.AppendLine("|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|");
+        s.AppendLine("| files | rows | MB | runs | floor (sqlite3 .import) | file handling alone | `ingest FOLDER` | files/s | rows/s | x floor | peak RSS | `run` until drained | files/s | rows/s | x floor | peak RSS | DB bytes / batch |");
+        s.AppendLine("|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|");
         foreach (var b in r["backlog"]!.AsArray())
         {
             var i = b!["ingest"]!;
             var run = b["run"]!;
-            s.AppendLine(Inv($"| {b["files"]} | {b["rows"]} | {b["megabytes"]} | {b["floorSeconds"]!["runs"]} | {S(b["floorSeconds"])} s | {S(i["wallSeconds"])} s | {i["filesPerSecond"]} | {i["rowsPerSecond"]} | {i["timesFloor"]} | {S(i["peakResidentMb"], 0)} MB | {S(run["wallSeconds"])} s | {run["filesPerSecond"]} | {run["rowsPerSecond"]} | {run["timesFloor"]} | {S(run["peakResidentMb"], 0)} MB | {b["databaseBytesPerStoredBatch"]} |"));
+            s.AppendLine(Inv($"| {b["files"]} | {b["rows"]} | {b["megabytes"]} | {b["floorSeconds"]!["runs"]} | {S(b["floorSeconds"])} s | {S(b["fileHandlingSeconds"], 3)} s | {S(i["wallSeconds"])} s | {i["filesPerSecond"]} | {i["rowsPerSecond"]} | {i["timesFloor"]} | {S(i["peakResidentMb"], 0)} MB | {S(run["wallSeconds"])} s | {run["filesPerSecond"]} | {run["rowsPerSecond"]} | {run["timesFloor"]} | {S(run["peakResidentMb"], 0)} MB | {b["databaseBytesPerStoredBatch"]} |"));
         }
 
         s.AppendLine();
