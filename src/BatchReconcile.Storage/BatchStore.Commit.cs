@@ -199,7 +199,7 @@ public sealed partial class BatchStore
         }
 
         var raw = batch.RawRows;
-        sql.InsertRawRows.Set("$revision", revisionId).Set("$header", raw.Header).Set("$lines", raw.Lines).Execute();
+        sql.InsertRawRows.Set("$revision", revisionId).Set("$header", raw.Header).Set("$count", raw.LineCount).Set("$lines", raw.Lines).Execute();
 
         var flagIds = new List<long>();
         var order = 0;

@@ -95,7 +95,7 @@ public sealed partial class BatchStore
             using var rows = new PreparedCommand(_connection, null, StoreQueries.RawRowsOfRevision, ("$revision", SqliteType.Integer));
             using var rowReader = rows.Set("$revision", revisionId).Read();
             return rowReader.Read()
-                ? RawRowsJson.Decode(rowReader.GetString(0), rowReader.GetString(1)).OrderBy(r => r.Line).Select(r => new RawRowView(r.Line, r.Fields)).ToList()
+                ? RawRowsJson.Decode(rowReader.GetString(0), (byte[])rowReader.GetValue(1)).OrderBy(r => r.Line).Select(r => new RawRowView(r.Line, r.Fields)).ToList()
                 : [];
         }
     }

@@ -27,8 +27,8 @@ internal static class RawRowsRepack
         using var read = new PreparedCommand(
             connection, transaction, "SELECT line, fields FROM raw_row WHERE revision_ref = $revision ORDER BY line", ("$revision", SqliteType.Integer));
         using var insert = new PreparedCommand(
-            connection, transaction, "INSERT INTO raw_rows (revision_ref, header, lines) VALUES ($revision, $header, $lines)",
-            ("$revision", SqliteType.Integer), ("$header", SqliteType.Text), ("$lines", SqliteType.Text));
+            connection, transaction, "INSERT INTO raw_rows (revision_ref, header, line_count, lines) VALUES ($revision, $header, $count, $lines)",
+            ("$revision", SqliteType.Integer), ("$header", SqliteType.Text), ("$count", SqliteType.Integer), ("$lines", SqliteType.Blob));
         foreach (var revision in revisions)
         {
             var rows = new List<(int Line, IReadOnlyList<KeyValuePair<string, string>> Fields)>();
@@ -40,8 +40,8 @@ internal static class RawRowsRepack
                 }
             }
 
-            var (header, lines) = RawRowsJson.Encode(rows, r => r.Line, r => r.Fields);
-            insert.Set("$revision", revision).Set("$header", header).Set("$lines", lines).Execute();
+            var raw = RawRowsJson.Encode(rows, r => r.Line, r => r.Fields);
+            insert.Set("$revision", revision).Set("$header", raw.Header).Set("$count", raw.LineCount).Set("$lines", raw.Lines).Execute();
         }
     }
 }

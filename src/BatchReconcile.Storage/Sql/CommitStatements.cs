@@ -60,8 +60,8 @@ internal sealed class CommitStatements : IDisposable
         RetireFlags = Make("UPDATE flag SET is_current = 0 WHERE revision_ref = $old", ("$old", I));
         RetireSteps = Make("UPDATE step_result SET is_current = 0 WHERE revision_ref = $old", ("$old", I));
         InsertRawRows = Make(
-            "INSERT INTO raw_rows (revision_ref, header, lines) VALUES ($revision, $header, $lines)",
-            ("$revision", I), ("$header", T), ("$lines", T));
+            "INSERT INTO raw_rows (revision_ref, header, line_count, lines) VALUES ($revision, $header, $count, $lines)",
+            ("$revision", I), ("$header", T), ("$count", I), ("$lines", SqliteType.Blob));
         InsertStep = Make(
             """
             INSERT INTO step_result (

@@ -1,28 +1,35 @@
 using System.Buffers;
-using System.Text;
+using System.IO.Compression;
+using System.Text.Encodings.Web;
 using System.Text.Json;
 
 namespace BatchReconcile.Storage.Sql;
 
 /// <summary>
-/// The rows of one batch revision as read from its file, in two JSON texts (table <c>raw_rows</c>):
-/// the header, an array of column names in file order, and the lines, an array of
-/// <c>[line number, value, value, ...]</c> with one value per header column.
+/// The rows of one batch revision as read from its file (table <c>raw_rows</c>): the header, a JSON
+/// array of column names in file order, and the lines, a JSON array of
+/// <c>[line number, value, value, ...]</c> with one value per header column, compressed with zlib
+/// (RFC 1950) because it is most of what the database holds.
 /// </summary>
 /// <remarks>
 /// One record per revision rather than one per row: a batch's rows come from one file and share its
 /// header, so the names are stored once, and storing a batch takes one statement instead of one per
 /// row. Should a row ever have a column the first did not, the header grows and earlier lines are
-/// shorter; a null value is a column the row did not have (a read value is never null).
+/// shorter; a null value is a column the row did not have (a read value is never null). The JSON is
+/// written with relaxed escaping (non-ASCII letters and <c>+</c> as they are): it is never placed in HTML.
 /// </remarks>
 internal static class RawRowsJson
 {
-    public static (string Header, string Lines) Encode<TRow>(IReadOnlyList<TRow> rows, Func<TRow, int> line, Func<TRow, IReadOnlyList<KeyValuePair<string, string>>> fields)
+    private static readonly JsonSerializerOptions RelaxedOptions = new() { Encoder = JavaScriptEncoder.UnsafeRelaxedJsonEscaping };
+
+    private static readonly JsonWriterOptions Relaxed = new() { Encoder = JavaScriptEncoder.UnsafeRelaxedJsonEscaping };
+
+    public static RawRowsText Encode<TRow>(IReadOnlyList<TRow> rows, Func<TRow, int> line, Func<TRow, IReadOnlyList<KeyValuePair<string, string>>> fields)
     {
         var header = new List<string>();
         var position = new Dictionary<string, int>(StringComparer.Ordinal);
         var buffer = new ArrayBufferWriter<byte>(256 + (rows.Count * 128));
-        using (var writer = new Utf8JsonWriter(buffer))
+        using (var writer = new Utf8JsonWriter(buffer, Relaxed))
         {
             writer.WriteStartArray();
             foreach (var row in rows)
@@ -54,14 +61,25 @@ internal static class RawRowsJson
             writer.WriteEndArray();
         }
 
-        var lines = Encoding.UTF8.GetString(buffer.WrittenSpan);
-        return (JsonSerializer.Serialize(header), lines);
+        using var compressed = new MemoryStream(buffer.WrittenCount / 3);
+        using (var zlib = new ZLibStream(compressed, CompressionLevel.Fastest, leaveOpen: true))
+        {
+            zlib.Write(buffer.WrittenSpan);
+        }
+
+        return new RawRowsText(JsonSerializer.Serialize(header, RelaxedOptions), rows.Count, compressed.ToArray());
     }
 
-    public static IReadOnlyList<(int Line, IReadOnlyList<KeyValuePair<string, string>> Fields)> Decode(string headerJson, string linesJson)
+    public static IReadOnlyList<(int Line, IReadOnlyList<KeyValuePair<string, string>> Fields)> Decode(string headerJson, byte[] compressedLines)
     {
         var header = JsonSerializer.Deserialize<string[]>(headerJson) ?? [];
-        using var lines = JsonDocument.Parse(linesJson);
+        using var json = new MemoryStream();
+        using (var zlib = new ZLibStream(new MemoryStream(compressedLines, writable: false), CompressionMode.Decompress))
+        {
+            zlib.CopyTo(json);
+        }
+
+        using var lines = JsonDocument.Parse(json.GetBuffer().AsMemory(0, (int)json.Length));
         var result = new List<(int, IReadOnlyList<KeyValuePair<string, string>>)>(lines.RootElement.GetArrayLength());
         foreach (var row in lines.RootElement.EnumerateArray())
         {
@@ -148,12 +166,8 @@ internal static class RawRowsJson
     }
 }
 
-/// <summary>A revision's raw rows as stored: the two texts of <see cref="RawRowsJson"/>.</summary>
-internal sealed record RawRowsText(string Header, string Lines)
+/// <summary>A revision's raw rows as stored (<see cref="RawRowsJson"/>): the header, how many lines, and the lines compressed.</summary>
+internal sealed record RawRowsText(string Header, int LineCount, byte[] Lines)
 {
-    public static RawRowsText Of(IReadOnlyList<Records.Exports.RecordRow> rows)
-    {
-        var (header, lines) = RawRowsJson.Encode(rows, r => r.Line, r => r.Raw);
-        return new RawRowsText(header, lines);
-    }
+    public static RawRowsText Of(IReadOnlyList<Records.Exports.RecordRow> rows) => RawRowsJson.Encode(rows, r => r.Line, r => r.Raw);
 }

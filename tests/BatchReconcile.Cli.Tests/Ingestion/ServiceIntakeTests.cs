@@ -47,7 +47,7 @@ public class ServiceIntakeTests
         Assert.Equal(1, shown.GetProperty("revision").GetInt32());
         Assert.Equal(1, shown.GetProperty("revisions").GetInt32());
         Assert.Equal(expected, JsonCanonical.Text(shown.GetProperty("steps")));
-        Assert.Equal(export.DataRowCount, sandbox.Data.Scalar("SELECT coalesce(sum(json_array_length(lines)), 0) FROM raw_rows"));
+        Assert.Equal(export.DataRowCount, sandbox.Data.Scalar("SELECT coalesce(sum(line_count), 0) FROM raw_rows"));
     }
 
     [Fact]
@@ -115,7 +115,7 @@ public class ServiceIntakeTests
         Assert.Equal(count, sandbox.Data.Scalar("SELECT COUNT(*) FROM batch"));
         Assert.Equal(count, sandbox.Data.Scalar("SELECT COUNT(*) FROM batch_revision"));
         Assert.Equal(1, sandbox.Data.Scalar("SELECT MAX(revision) FROM batch_revision"));
-        Assert.Equal(count * sample.DataRowCount, sandbox.Data.Scalar("SELECT coalesce(sum(json_array_length(lines)), 0) FROM raw_rows"));
+        Assert.Equal(count * sample.DataRowCount, sandbox.Data.Scalar("SELECT coalesce(sum(line_count), 0) FROM raw_rows"));
         foreach (var id in new[] { "E2E-MANY-001", $"E2E-MANY-{count:D3}" })
         {
             Assert.Equal(1, (await ShowRequiredAsync(sandbox, id)).GetProperty("revision").GetInt32());
@@ -141,7 +141,7 @@ public class ServiceIntakeTests
         Assert.Equal(1, shown.GetProperty("revisions").GetInt32());
         Assert.Equal("dup-export.csv", shown.GetProperty("sourceFile").GetString());
         Assert.Equal(1, sandbox.Data.Scalar("SELECT COUNT(*) FROM batch_revision"));
-        Assert.Equal(export.DataRowCount, sandbox.Data.Scalar("SELECT coalesce(sum(json_array_length(lines)), 0) FROM raw_rows"));
+        Assert.Equal(export.DataRowCount, sandbox.Data.Scalar("SELECT coalesce(sum(line_count), 0) FROM raw_rows"));
     }
 
     [Fact]

@@ -91,7 +91,7 @@ public class ServiceStopTests(ITestOutputHelper output)
         Assert.Equal(count, sandbox.Data.Scalar("SELECT COUNT(*) FROM batch"));
         Assert.Equal(count, sandbox.Data.Scalar("SELECT COUNT(*) FROM batch_revision"));
         Assert.Equal(1, sandbox.Data.Scalar("SELECT MAX(revision) FROM batch_revision"));
-        Assert.Equal(count * ExportText.FromSample(Benzamide).DataRowCount, sandbox.Data.Scalar("SELECT coalesce(sum(json_array_length(lines)), 0) FROM raw_rows"));
+        Assert.Equal(count * ExportText.FromSample(Benzamide).DataRowCount, sandbox.Data.Scalar("SELECT coalesce(sum(line_count), 0) FROM raw_rows"));
         // Each file stored once; a file committed but not yet moved at the kill is logged again as a duplicate.
         var log = sandbox.IngestLog();
         Assert.Equal(names, log.Where(l => l.Outcome == "stored").Select(l => l.File).Order(StringComparer.Ordinal));

@@ -16,7 +16,7 @@ internal static class Db
 
     /// <summary>Lines of raw rows stored, over all revisions (one <c>raw_rows</c> record holds a revision's lines).</summary>
     public static long RawLineCount(SqliteConnection connection) =>
-        long.Parse(Scalar(connection, "SELECT coalesce(sum(json_array_length(lines)), 0) FROM raw_rows")!, System.Globalization.CultureInfo.InvariantCulture);
+        long.Parse(Scalar(connection, "SELECT coalesce(sum(line_count), 0) FROM raw_rows")!, System.Globalization.CultureInfo.InvariantCulture);
 
     public static string? Scalar(SqliteConnection connection, string sql)
     {
