@@ -17,5 +17,5 @@ public sealed class IntakeOptions
 
     /// <summary>At most this many files share one database transaction (each file stays atomic).</summary>
     [Range(1, 10_000)]
-    public int GroupCommitMaxFiles { get; set; } = 64;
+    public int GroupCommitMaxFiles { get; set; } = 256;
 }
