@@ -11,6 +11,7 @@ using Microsoft.Extensions.Hosting;
 using Microsoft.Extensions.Logging;
 using Microsoft.Extensions.Options;
 using Serilog;
+using Serilog.Settings.Configuration;
 
 namespace BatchReconcile.Hosting;
 
@@ -20,6 +21,11 @@ namespace BatchReconcile.Hosting;
 /// </summary>
 public static class AppHost
 {
+    /// <summary>The sinks the settings may name (<c>Serilog:WriteTo</c>): console and rolling file.</summary>
+    private static readonly ConfigurationReaderOptions SinkAssemblies = new(
+        typeof(ConsoleLoggerConfigurationExtensions).Assembly,
+        typeof(FileLoggerConfigurationExtensions).Assembly);
+
     /// <param name="service">True for <c>run</c>: the inbox service is added and console logging is at the configured level.
     /// One-shot commands log warnings and above to the console (stderr) and everything to the log file.</param>
     /// <param name="quietConsole">Keep the console to errors (the demo prints its own summary).</param>
@@ -84,7 +90,9 @@ public static class AppHost
         });
         builder.Services.AddSingleton<DigestWriter>();
 
-        builder.Services.AddSerilog((_, logger) => logger.ReadFrom.Configuration(builder.Configuration));
+        // The sink assemblies are named rather than found: finding them reads the dependency manifest and
+        // scans the program's folder, a noticeable part of every one-shot command's start-up.
+        builder.Services.AddSerilog((_, logger) => logger.ReadFrom.Configuration(builder.Configuration, SinkAssemblies));
         if (service)
         {
             builder.Services.AddSystemd();
