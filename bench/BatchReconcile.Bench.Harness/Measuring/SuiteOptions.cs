@@ -14,7 +14,7 @@ internal sealed record SuiteOptions
     public double ContrastSettleSeconds { get; init; } = 0.25;
 
     /// <summary>Batches added to the large backlog's store, in one file, to make the large history (also the big-file case).</summary>
-    public int BigFileBatches { get; init; } = 90_000;
+    public int BigFileBatches { get; init; } = 106_000;
     public int BigFileRuns { get; init; } = 3;
     public int BatchesPerDay { get; init; } = 50;
     public bool Kernels { get; init; } = true;
