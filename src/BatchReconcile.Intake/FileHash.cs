@@ -12,6 +12,9 @@ public static class FileHash
         return Convert.ToHexStringLower(SHA256.HashData(stream));
     }
 
+    /// <summary>SHA-256 of a file's bytes already read into memory, in the same form as <see cref="Sha256Of(string)"/>.</summary>
+    public static string Sha256Of(ReadOnlySpan<byte> content) => Convert.ToHexStringLower(SHA256.HashData(content));
+
     /// <summary>SHA-256 of the file's bytes as 64 lowercase hex digits.</summary>
     public static async Task<string> Sha256OfAsync(string path, CancellationToken cancellationToken = default)
     {

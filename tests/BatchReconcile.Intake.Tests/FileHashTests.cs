@@ -19,5 +19,6 @@ public sealed class FileHashTests : IDisposable
 
         Assert.Equal(expected, FileHash.Sha256Of(path));
         Assert.Equal(expected, await FileHash.Sha256OfAsync(path));
+        Assert.Equal(expected, FileHash.Sha256Of(File.ReadAllBytes(path)));
     }
 }

@@ -1,4 +1,3 @@
-using System.Security.Cryptography;
 using BatchReconcile.Intake;
 using BatchReconcile.Intake.Archive;
 using BatchReconcile.Intake.Inbox;
@@ -81,7 +80,7 @@ public sealed class IngestPipeline(
         if (file.Size <= InMemoryMaxBytes)
         {
             content = File.ReadAllBytes(file.FullPath);
-            sha256 = Convert.ToHexStringLower(SHA256.HashData(content));
+            sha256 = FileHash.Sha256Of(content);
         }
         else
         {
