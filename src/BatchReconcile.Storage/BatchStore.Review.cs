@@ -63,13 +63,7 @@ public sealed partial class BatchStore
                     return ReviewResult.Refused(flagId, ReviewRefusal.UnknownFlag, $"flag {id} does not exist");
                 }
 
-                current = new FlagReview(
-                    ReviewText.ParseStoredState(reader.GetString(0)),
-                    ReviewText.ParseStoredOutcome(reader.NullableString(1)),
-                    reader.NullableString(2),
-                    reader.NullableString(3),
-                    reader.NullableString(4),
-                    reader.NullableTime(5));
+                current = ReadReview(reader, 0, 1);
                 batch = reader.GetString(6);
                 revision = reader.GetInt32(7);
                 step = reader.GetString(10);

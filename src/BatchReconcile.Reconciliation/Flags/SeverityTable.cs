@@ -11,9 +11,6 @@ public sealed class SeverityTable
 
     private SeverityTable(Dictionary<FlagCode, FlagSeverity> site) => _site = site;
 
-    /// <summary>Only the defaults of <see cref="ReconciliationSettings.DefaultSeverity"/>.</summary>
-    public static SeverityTable Defaults { get; } = new([]);
-
     /// <summary>
     /// Reads the site's text map (flag code text to severity text, e.g. "yield-low": "major"). Every unknown code
     /// and every unknown severity is reported, not only the first.

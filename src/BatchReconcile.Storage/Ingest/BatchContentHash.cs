@@ -32,6 +32,10 @@ public static class BatchContentHash
 {
     private static ReadOnlySpan<byte> FormVersion => "batch-content/1"u8;
 
+    // The entry's name in lower case, made once rather than for every row.
+    private static readonly Dictionary<EntryKind, string> EntryNames =
+        Enum.GetValues<EntryKind>().ToDictionary(k => k, k => k.ToString().ToLowerInvariant());
+
     public static string Compute(BatchRecord batch)
     {
         ArgumentNullException.ThrowIfNull(batch);
@@ -77,7 +81,7 @@ public static class BatchContentHash
     {
         writer.WriteStartArray();
         writer.WriteStringValue(row.Step);
-        writer.WriteStringValue(row.Entry.ToString().ToLowerInvariant());
+        writer.WriteStringValue(EntryNames[row.Entry]);
         WriteTextOrNull(writer, row.Material);
         WriteTextOrNull(writer, row.Stream);
         WriteTextOrNull(writer, Number(row.Quantity));

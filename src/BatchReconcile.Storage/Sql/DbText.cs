@@ -22,8 +22,6 @@ internal static class DbText
 
     public static DateOnly ParseDay(string text) => DateOnly.ParseExact(text, DayFormat, CultureInfo.InvariantCulture);
 
-    public static object OrNull(object? value) => value ?? DBNull.Value;
-
     public static string? NullableString(this SqliteDataReader reader, int ordinal) =>
         reader.IsDBNull(ordinal) ? null : reader.GetString(ordinal);
 

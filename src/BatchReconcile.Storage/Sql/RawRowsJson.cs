@@ -138,7 +138,6 @@ internal static class RawRowsJson
         }
 
         var slots = new string?[header.Count + values.Count];
-        var used = header.Count;
         foreach (var (name, value) in values)
         {
             if (!position.TryGetValue(name, out var at))
@@ -146,13 +145,12 @@ internal static class RawRowsJson
                 at = header.Count;
                 header.Add(name);
                 position[name] = at;
-                used = header.Count;
             }
 
             slots[at] = value;
         }
 
-        for (var i = 0; i < used; i++)
+        for (var i = 0; i < header.Count; i++)
         {
             if (slots[i] is { } text)
             {
