@@ -171,8 +171,7 @@ public static class HtmlDigestRenderer
             return;
         }
 
-        var steps = data.FlaggedSteps
-            .OrderBy(s => s.BatchId, NaturalOrder.Instance).ThenBy(s => s.Revision).ThenBy(s => s.Step, NaturalOrder.Instance).ToList();
+        var steps = StepOrder(data.FlaggedSteps).ToList();
         for (var i = 0; i < steps.Count; i++)
         {
             var step = steps[i];
@@ -194,9 +193,7 @@ public static class HtmlDigestRenderer
             Fact(html, "Out (weighed)", DigestText.Kg(o.MassOutKg, dec) + " kg");
             Fact(html, "Vented (estimate)", $"{DigestText.Kg(o.VentedKg, dec)} kg, up to {DigestText.Kg(o.VentedMaxKg, dec)} kg");
             Fact(html, "Gap", DigestText.Kg(o.GapKg, dec) + " kg");
-            Fact(html, "Closure", o.ClosurePct is { } c
-                ? $"{DigestText.Pct(c)} % ± {DigestText.Pct(ClosureChart.ExpandedUncertaintyPct(step))} % (k = {DigestText.Number(step.CoverageFactor, 1)})"
-                : "n/a");
+            Fact(html, "Closure", ClosureText(step));
             Fact(html, "Tolerance", "± " + DigestText.Pct(step.TolerancePct) + " % of charged");
             html.Append("</dl>\n</header>\n");
 
@@ -232,7 +229,7 @@ public static class HtmlDigestRenderer
         }
 
         html.Append("<div class=\"yield-grid\">\n");
-        foreach (var step in data.Yields.OrderBy(s => s.Recipe, NaturalOrder.Instance).ThenBy(s => s.Step, NaturalOrder.Instance))
+        foreach (var step in YieldOrder(data.Yields))
         {
             var today = step.History.Where(p => p.OnDigestDay).ToList();
             html.Append("<figure class=\"yield\">\n<h3>").Append(H(step.Recipe)).Append(" ").Append(H(step.Step)).Append(": ").Append(H(step.StepName)).Append("</h3>\n")
@@ -271,6 +268,17 @@ public static class HtmlDigestRenderer
 
     internal static IEnumerable<OpenFlagItem> OpenOrder(IEnumerable<OpenFlagItem> items) =>
         items.OrderByDescending(o => o.AgeDays).ThenBy(o => o.Severity).ThenBy(o => o.FlagId);
+
+    internal static IEnumerable<FlaggedStep> StepOrder(IEnumerable<FlaggedStep> steps) =>
+        steps.OrderBy(s => s.BatchId, NaturalOrder.Instance).ThenBy(s => s.Revision).ThenBy(s => s.Step, NaturalOrder.Instance);
+
+    internal static IEnumerable<RecipeStepYields> YieldOrder(IEnumerable<RecipeStepYields> yields) =>
+        yields.OrderBy(s => s.Recipe, NaturalOrder.Instance).ThenBy(s => s.Step, NaturalOrder.Instance);
+
+    /// <summary>The closure with its expanded uncertainty and coverage factor, or "n/a"; plain text with no markup characters.</summary>
+    internal static string ClosureText(FlaggedStep step) => step.Outcome.ClosurePct is { } c
+        ? $"{DigestText.Pct(c)} % ± {DigestText.Pct(ClosureChart.ExpandedUncertaintyPct(step))} % (k = {DigestText.Number(step.CoverageFactor, 1)})"
+        : "n/a";
 
     // Limits are inclusive and a value within 1e-9 (relative) of one counts as on it, as the flag rules say.
     internal static string Within(RecipeStepYields step, YieldPoint point) => point.YieldPct switch

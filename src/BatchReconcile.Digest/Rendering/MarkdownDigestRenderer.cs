@@ -73,7 +73,7 @@ public static class MarkdownDigestRenderer
             md.Append("No step was flagged on this day.\n\n");
         }
 
-        foreach (var step in data.FlaggedSteps.OrderBy(s => s.BatchId, NaturalOrder.Instance).ThenBy(s => s.Revision).ThenBy(s => s.Step, NaturalOrder.Instance))
+        foreach (var step in HtmlDigestRenderer.StepOrder(data.FlaggedSteps))
         {
             var o = step.Outcome;
             var dec = DigestText.KgDecimals(o.MassInKg);
@@ -91,9 +91,7 @@ public static class MarkdownDigestRenderer
             md.Append('\n');
             md.Append("Balance: out ").Append(DigestText.Kg(o.MassOutKg, dec)).Append(" kg, vented ").Append(DigestText.Kg(o.VentedKg, dec))
                 .Append(" kg (up to ").Append(DigestText.Kg(o.VentedMaxKg, dec)).Append(" kg), gap ").Append(DigestText.Kg(o.GapKg, dec)).Append(" kg; closure ");
-            md.Append(o.ClosurePct is { } c
-                ? $"{DigestText.Pct(c)} % ± {DigestText.Pct(ClosureChart.ExpandedUncertaintyPct(step))} % (k = {DigestText.Number(step.CoverageFactor, 1)})"
-                : "n/a");
+            md.Append(HtmlDigestRenderer.ClosureText(step));
             md.Append(", tolerance ± ").Append(DigestText.Pct(step.TolerancePct)).Append(" %.\n\n");
         }
 
@@ -106,7 +104,7 @@ public static class MarkdownDigestRenderer
         {
             Row(md, "Recipe", "Step", "Limits %", "This day", "Last batches");
             md.Append("|---|---|---|---|---|\n");
-            foreach (var step in data.Yields.OrderBy(s => s.Recipe, NaturalOrder.Instance).ThenBy(s => s.Step, NaturalOrder.Instance))
+            foreach (var step in HtmlDigestRenderer.YieldOrder(data.Yields))
             {
                 var today = step.History.Where(p => p.OnDigestDay).Select(p => $"{E(p.BatchId)} {DigestText.Pct(p.YieldPct)}{HtmlDigestRenderer.Within(step, p)}");
                 var history = HistorySummary(step);

@@ -34,8 +34,6 @@ public sealed class DigestWriter(
     TimeProvider time,
     ILogger<DigestWriter> logger)
 {
-    private const int HistoryLength = 30;
-
     /// <param name="rewrite">Write even when the day has a digest already (the rewrite is recorded and logged).</param>
     /// <param name="by">Who asked: "service" for the schedule, otherwise a name.</param>
     public DigestWriteResult Write(DateOnly day, bool rewrite, string by)
@@ -126,7 +124,7 @@ public sealed class DigestWriter(
             return null;
         }
 
-        var history = store.StepHistory(key.Recipe, key.Step, HistoryLength, day)
+        var history = store.StepHistory(key.Recipe, key.Step, RecipeStepYields.MaxHistory, day)
             .Select(p => new YieldPoint(p.BatchId, p.ProductionDay, p.YieldPct, p.ProductionDay == day))
             .ToList();
         return new RecipeStepYields(key.Recipe, key.Step, step.Name, step.YieldPct.Min, step.YieldPct.Max, history);
