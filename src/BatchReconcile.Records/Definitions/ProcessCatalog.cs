@@ -14,8 +14,6 @@ public sealed class ProcessCatalog
             .ToDictionary(g => g.Key, g => g.OrderBy(r => r.Version).ToList(), StringComparer.OrdinalIgnoreCase);
     }
 
-    public static ProcessCatalog Empty { get; } = new([], []);
-
     public IReadOnlyCollection<Material> Materials => _materials.Values;
 
     public IEnumerable<Recipe> Recipes => _recipes.Values.SelectMany(v => v);

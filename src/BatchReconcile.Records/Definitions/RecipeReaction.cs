@@ -7,11 +7,4 @@ public sealed record RecipeReaction(
     string Text,
     string Balanced,
     IReadOnlyList<ReactionSpecies> Reactants,
-    IReadOnlyList<ReactionSpecies> Products)
-{
-    public ReactionSpecies? FindReactant(string materialCode) =>
-        Reactants.FirstOrDefault(t => string.Equals(t.MaterialCode, materialCode, StringComparison.Ordinal));
-
-    public ReactionSpecies? FindProduct(string materialCode) =>
-        Products.FirstOrDefault(t => string.Equals(t.MaterialCode, materialCode, StringComparison.Ordinal));
-}
+    IReadOnlyList<ReactionSpecies> Products);

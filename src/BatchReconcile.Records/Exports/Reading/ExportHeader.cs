@@ -94,8 +94,10 @@ internal sealed class ExportHeader
         return duplicates.Count == 0 && missing.Count == 0 ? new ExportHeader(names, known, warnings) : null;
     }
 
-    private static string ContractName(string name) =>
+    /// <summary>The contract's spelling of a column name, or the name as given when it is not a contract column.</summary>
+    internal static string ContractName(string name) =>
         ExportColumns.All.FirstOrDefault(c => string.Equals(c, name, StringComparison.OrdinalIgnoreCase)) ?? name;
 
-    private static string Shorten(string text) => text.Length <= 200 ? text : string.Concat(text.AsSpan(0, 200), "...");
+    /// <summary>A value cut to 200 characters for an error message.</summary>
+    internal static string Shorten(string text) => text.Length <= 200 ? text : string.Concat(text.AsSpan(0, 200), "...");
 }

@@ -105,12 +105,12 @@ internal sealed class ExportScanner(
         if (record.RecordNumber == 1)
         {
             // Reported once the header is checked: a semicolon header gets its one clear error instead.
-            _headerMalformed = (record.LineNumber, Shorten(record.RawRecord), reason);
+            _headerMalformed = (record.LineNumber, ExportHeader.Shorten(record.RawRecord), reason);
             return;
         }
 
         _malformedLines.Add(record.LineNumber);
-        errors.Add(record.LineNumber, "", Shorten(record.RawRecord), reason);
+        errors.Add(record.LineNumber, "", ExportHeader.Shorten(record.RawRecord), reason);
     }
 
     public ExportScanResult Run(CsvReader reader)
@@ -145,7 +145,8 @@ internal sealed class ExportScanner(
             var line = (int)Math.Clamp(reader.LineNumber, 1, int.MaxValue);
             ReadRow(fields, line);
 
-            var key = BatchKey(reader, batchIndex);
+            // The batch field as already read into the row, not decoded from the reader a second time.
+            var key = batchIndex >= 0 && batchIndex < fields.Length ? fields[batchIndex].Trim() : "";
             if (lastRowOfBatch is not null && key.Length > 0
                 && lastRowOfBatch.TryGetValue(key, out var lastRow) && lastRow == reader.RowNumber)
             {
@@ -182,12 +183,11 @@ internal sealed class ExportScanner(
 
         if (fields.Length != header.FieldCount)
         {
-            errors.Add(line, "", Shorten(string.Join(",", fields)),
+            errors.Add(line, "", ExportHeader.Shorten(string.Join(",", fields)),
                 Invariant($"this row has {fields.Length} fields but the header has {header.FieldCount}; a value that contains a comma must be in double quotes"));
             return;
         }
 
-        var errorsBefore = errors.Count;
         string Field(string column)
         {
             var i = header.IndexOf(column);
@@ -200,7 +200,7 @@ internal sealed class ExportScanner(
         {
             if (fields[i].Contains('\uFFFD', StringComparison.Ordinal))
             {
-                Error(ContractName(header.Names[i]), fields[i], "contains bytes that are not valid UTF-8; export the file as UTF-8");
+                Error(ExportHeader.ContractName(header.Names[i]), fields[i], "contains bytes that are not valid UTF-8; export the file as UTF-8");
             }
         }
 
@@ -446,7 +446,7 @@ internal sealed class ExportScanner(
             }
         }
 
-        if (errors.Count == 0 && errors.Count == errorsBefore && batch.Rows is not null)
+        if (errors.Count == 0 && batch.Rows is not null)
         {
             var raw = new KeyValuePair<string, string>[fields.Length];
             for (var i = 0; i < fields.Length; i++)
@@ -551,14 +551,9 @@ internal sealed class ExportScanner(
 
     private static string Article(string word) => word.Length > 0 && "aeiou".Contains(word[0], StringComparison.Ordinal) ? "an" : "a";
 
-    private static string ContractName(string name) =>
-        ExportColumns.All.FirstOrDefault(c => string.Equals(c, name, StringComparison.OrdinalIgnoreCase)) ?? name;
-
     private static string Known(IEnumerable<string> codes)
     {
         var list = codes.Order(StringComparer.Ordinal).Take(11).ToList();
         return list.Count == 0 ? "" : $" (known: {string.Join(", ", list.Take(10))}{(list.Count > 10 ? ", ..." : "")})";
     }
-
-    private static string Shorten(string text) => text.Length <= 200 ? text : string.Concat(text.AsSpan(0, 200), "...");
 }

@@ -9,10 +9,6 @@ public static class QuarantineReport
 {
     private const int MaxValueLength = 80;
 
-    /// <summary>Renders the report with the current time as the time of quarantine.</summary>
-    public static string Render(string fileName, string? sha256, IReadOnlyList<ExportError> errors) =>
-        Render(fileName, sha256, errors, DateTimeOffset.Now);
-
     public static string Render(string fileName, string? sha256, IReadOnlyList<ExportError> errors, DateTimeOffset quarantinedAt)
     {
         ArgumentNullException.ThrowIfNull(errors);
