@@ -380,10 +380,11 @@ internal sealed partial class Suite(SuiteOptions o)
                     Thread.Sleep(due);
                 }
 
-                // Register first: the service may take the file before the next line runs.
-                pending[names[k]] = Stopwatch.GetTimestamp();
+                // The time is taken before the move and the file registered after it: registered before, the
+                // monitor could count it as gone before it arrived; registered twice, it could count it twice.
+                var renamedAt = Stopwatch.GetTimestamp();
                 File.Move(Path.Combine(stage, names[k]), Path.Combine(inbox, names[k]));
-                pending[names[k]] = Stopwatch.GetTimestamp();
+                pending[names[k]] = renamedAt;
             }
 
             var limit = Stopwatch.StartNew();
