@@ -11,7 +11,10 @@ public sealed partial class BatchStore
     /// Walks the audit chain in id order (<c>audit verify</c>) and stops at the first entry that
     /// does not verify: a gap in the ids, a previous-hash that is not the hash of the entry before,
     /// or content that no longer gives the entry's hash. Entries missing at the end are found from
-    /// SQLite's id sequence. Reads one snapshot; the service may go on writing meanwhile.
+    /// SQLite's id sequence. Then replays the trail (<see cref="TrailReplay"/>) and compares what it
+    /// implies with the live tables: every flag's review state, outcome, deviation reference, reviewer,
+    /// review time and note, every batch's current revision, and which flags and step results are marked
+    /// current. Reads one snapshot; the service may go on writing meanwhile.
     /// </summary>
     public AuditVerification VerifyAudit()
     {
@@ -22,6 +25,7 @@ public sealed partial class BatchStore
             var previousHash = AuditCanonicalForm.GenesisHash;
             long previousId = 0;
             long count = 0;
+            var replay = new TrailReplay();
             using (var walk = new PreparedCommand(_connection, transaction, $"SELECT {AuditWriter.Columns} FROM audit_event ORDER BY id"))
             using (var reader = walk.Read())
             {
@@ -34,6 +38,7 @@ public sealed partial class BatchStore
                         return new AuditVerification(false, count, entry.Id, p.Problem, previousHash, p.Message);
                     }
 
+                    replay.Add(entry);
                     previousId = entry.Id;
                     previousHash = entry.Hash;
                     count++;
@@ -52,7 +57,18 @@ public sealed partial class BatchStore
                 }
             }
 
+            var differences = LiveStateCheck.Compare(_connection, transaction, replay);
             transaction.Commit();
+            if (differences.Count > 0)
+            {
+                var more = differences.Count == 1 ? string.Empty : $" (and {N(differences.Count - 1)} more difference{(differences.Count == 2 ? string.Empty : "s")})";
+                return new AuditVerification(false, count, differences[0].EntryId, AuditProblem.LiveStateDiffers, previousHash,
+                    $"the chain of {N(count)} entries is intact, but the live tables do not match it: {differences[0].Message}{more}")
+                {
+                    Differences = differences,
+                };
+            }
+
             return new AuditVerification(true, count, null, null, previousHash,
                 count == 0 ? "the audit trail is empty" : $"the audit trail is intact: {N(count)} entries verified, the last hash is {previousHash}");
         }

@@ -117,7 +117,9 @@ public sealed partial class BatchStore
 
     private static ReviewResult? CheckReviewInput(long flagId, ReviewState to, string by, string note, CloseOutcome? outcome, string? deviationRef)
     {
-        ReviewResult Refuse(ReviewRefusal why, string reason) => ReviewResult.Refused(flagId, why, reason);
+        // Every reason names the flag once, so that the command line can print it as it is.
+        ReviewResult Refuse(ReviewRefusal why, string reason) =>
+            ReviewResult.Refused(flagId, why, $"flag {flagId.ToString(CultureInfo.InvariantCulture)}: {reason}");
 
         if (string.IsNullOrWhiteSpace(by))
         {

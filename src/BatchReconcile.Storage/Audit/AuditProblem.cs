@@ -14,4 +14,7 @@ public enum AuditProblem
 
     /// <summary>The id sequence went further than the last entry: entries at the end are missing.</summary>
     MissingAtEnd,
+
+    /// <summary>The chain verifies, but a live table (a flag's review, a batch's current revision) is not what the chain implies.</summary>
+    LiveStateDiffers,
 }

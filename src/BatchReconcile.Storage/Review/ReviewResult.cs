@@ -22,7 +22,7 @@ public sealed record ReviewResult
 
     public ReviewRefusal? Refusal { get; }
 
-    /// <summary>One sentence for people saying why the change was refused (the CLI prints it and exits 2).</summary>
+    /// <summary>One sentence for people saying why the change was refused, naming the flag once (the CLI prints it as it is and exits 2).</summary>
     public string? Reason { get; }
 
     public bool Accepted => Refusal is null;

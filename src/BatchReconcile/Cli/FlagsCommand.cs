@@ -71,7 +71,7 @@ public static class FlagsCommand
             var result = store.ReviewFlag(flagId, to!.Value, parse.GetRequiredValue(by), parse.GetRequiredValue(note), closeOutcome, parse.GetValue(deviation));
             if (!result.Accepted)
             {
-                throw new UsageException($"flag {flagId}: {result.Reason}");
+                throw new UsageException(result.Reason!);
             }
 
             var review = result.Review!;

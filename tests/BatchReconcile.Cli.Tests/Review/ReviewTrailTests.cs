@@ -61,6 +61,9 @@ public sealed class ReviewTrailTests : IDisposable
 
         Assert.Equal(2, again.ExitCode);
         Assert.Contains("already closed", again.Stderr);
+        // The reason names the flag once ("flag 5: flag 5 is already closed" said it twice).
+        var line = Assert.Single(again.Stderr.Split('\n'), l => l.Contains("already closed", StringComparison.Ordinal));
+        Assert.Equal(1, System.Text.RegularExpressions.Regex.Count(line, $"flag {id}\\b"));
         var list = await Ok("flags", "list", "--day", "2026-11-25");
         Assert.Contains("closed (deviation)", list.Stdout);
     }
@@ -78,6 +81,28 @@ public sealed class ReviewTrailTests : IDisposable
 
         Assert.Equal(1, result.ExitCode);
         Assert.Contains($"entry {entry}", result.Stderr);
+    }
+
+    [Fact]
+    public async Task Audit_verify_fails_naming_the_flag_and_both_values_after_the_flag_table_is_edited_with_the_sqlite3_shell()
+    {
+        var id = await FirstFlagOf("2026-11-25");
+        await Ok("flags", "review", id, "--state", "closed", "--by", "A. Chen", "--note", "assay low, deviation raised", "--outcome", "deviation", "--deviation", "DEV-2026-117");
+        Assert.Contains("audit trail intact", (await Ok("audit", "verify")).Stdout);
+
+        // A person with shell access drops the review-validation triggers and turns the deviation into an explained flag.
+        Sqlite3($"DROP TRIGGER flag_review_valid_update; UPDATE flag SET outcome = 'explained', deviation_ref = NULL, reviewed_by = 'B. Osei' WHERE id = {id};");
+        var list = await Ok("flags", "list", "--day", "2026-11-25");
+        Assert.Contains("closed (explained)", list.Stdout);
+        var result = await Run(["audit", "verify"]);
+
+        Assert.Equal(1, result.ExitCode);
+        Assert.Contains($"flag {id}: outcome is 'explained' in the live tables but the trail (entry", result.Stderr);
+        Assert.Contains("says 'deviation'", result.Stderr);
+        Assert.Contains($"flag {id}: deviation reference is none in the live tables but the trail", result.Stderr);
+        Assert.Contains("'DEV-2026-117'", result.Stderr);
+        Assert.Contains($"flag {id}: reviewer is 'B. Osei' in the live tables", result.Stderr);
+        Assert.Contains("3 live values differ", result.Stderr);
     }
 
     [Fact]

@@ -157,7 +157,7 @@ public sealed class AuditChainTests
     }
 
     /// <summary>Every kind of event: stored, quarantined, duplicate, a revision (with the system closing a flag), reviews, a digest and its rewrite.</summary>
-    private static BatchStore Filled(TempDatabase db)
+    internal static BatchStore Filled(TempDatabase db)
     {
         var store = db.Open();
         store.Commit([Build.File("a.csv", Build.Ingest(Build.Batch("BZ-001"), Build.Day1, Build.Flag("S1")), Build.Ingest(Build.Batch("BZ-002"), Build.Day1, Build.Flag("S2")))]);
