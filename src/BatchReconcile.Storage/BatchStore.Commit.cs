@@ -145,7 +145,7 @@ public sealed partial class BatchStore
             : IngestOutcome.Stored;
 
         sql.FinishIngest.Set("$outcome", outcome.ToText()).Set("$batches", batchResults.Count).Set("$id", ingestId).Execute();
-        var listed = batchResults.Take(MaxAuditedBatches).Select(b => new { batch = b.BatchId, disposition = b.Disposition.ToString().ToLowerInvariant(), revision = b.Revision });
+        var listed = batchResults.Take(MaxAuditedBatches).Select(b => new { batch = b.BatchId, disposition = b.Disposition.ToText(), revision = b.Revision });
         Audit(sql, now, "ingest." + outcome.ToText(), file, batchResults.Count <= MaxAuditedBatches
             ? (object)new { file = file.FileName, sha256 = file.Sha256, batches = listed }
             : new { file = file.FileName, sha256 = file.Sha256, batches = listed, batchCount = batchResults.Count, batchesNotListed = batchResults.Count - MaxAuditedBatches });

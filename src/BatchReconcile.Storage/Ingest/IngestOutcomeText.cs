@@ -12,6 +12,15 @@ public static class IngestOutcomeText
         _ => throw new ArgumentOutOfRangeException(nameof(outcome), outcome, null),
     };
 
+    /// <summary>"new", "revision", "unchanged": as the audit trail lists a file's batches and the log names them.</summary>
+    public static string ToText(this BatchDisposition disposition) => disposition switch
+    {
+        BatchDisposition.New => "new",
+        BatchDisposition.Revision => "revision",
+        BatchDisposition.Unchanged => "unchanged",
+        _ => throw new ArgumentOutOfRangeException(nameof(disposition), disposition, null),
+    };
+
     public static IngestOutcome Parse(string text) => text switch
     {
         "stored" => IngestOutcome.Stored,

@@ -75,7 +75,7 @@ public sealed class CatalogSource : IDisposable
         {
             foreach (var error in result.Errors)
             {
-                _logger.LogError("Process definitions not reloaded: {File} {Recipe} {Step}: {Problem}", error.File, error.Recipe, error.Step, error.Message);
+                _logger.LogError("Process definitions not reloaded: {Where}: {Problem}", error.Where, error.Message);
             }
 
             _logger.LogWarning("The definitions loaded before stay in use until the files are corrected");
@@ -91,7 +91,7 @@ public sealed class CatalogSource : IDisposable
     {
         foreach (var note in result.Notes)
         {
-            _logger.LogInformation("{File} {Recipe} {Step}: {Note}", note.File, note.Recipe, note.Step, note.Message);
+            _logger.LogInformation("{Where}: {Note}", note.Where, note.Message);
         }
     }
 

@@ -204,7 +204,8 @@ public sealed class IngestPipeline(
         var archived = mover.MoveToArchive(file.FullPath);
         foreach (var batch in result.Batches)
         {
-            logger.LogInformation("{File} batch {Batch} {Disposition} as revision {Revision} with {FlagCount} flags", file.Name, batch.BatchId, batch.Disposition, batch.Revision, batch.FlagIds.Count);
+            // Names as the user reads them (new, revision, yield-low, major), never the program's enum names.
+            logger.LogInformation("{File} batch {Batch} {Disposition} as revision {Revision} with {FlagCount} flags", file.Name, batch.BatchId, batch.Disposition.ToText(), batch.Revision, batch.FlagIds.Count);
         }
 
         if (outcome == IngestOutcome.Duplicate)
@@ -219,7 +220,7 @@ public sealed class IngestPipeline(
             store.ForEachFlagOfIngest(ingestId, (batchId, stored) =>
             {
                 var flag = stored.Flag;
-                logger.LogInformation("{File} batch {Batch} step {Step} flag {Flag} ({Severity}): {Message}", file.Name, batchId, flag.Step, flag.Code, flag.Severity, flag.Message);
+                logger.LogInformation("{File} batch {Batch} step {Step} flag {Flag} ({Severity}): {Message}", file.Name, batchId, flag.Step, flag.Code.ToText(), flag.Severity.ToText(), flag.Message);
             });
         }
 

@@ -19,12 +19,38 @@ public class StartupValidationTests
         var result = await ProgramRunner.RunAsync("check", SampleFile, "--config", config, "--data", temp.Sub("data"));
 
         Assert.Equal(2, result.ExitCode);
-        Assert.Single(result.Stderr.TrimEnd().Split('\n'));
-        Assert.Contains("piperazine.json", result.Stderr);
-        Assert.Contains("PPZ-220", result.Stderr);
-        Assert.Contains("S1", result.Stderr);
-        Assert.Contains("Cl is off by 1", result.Stderr);
+        // A heading, then each problem on a line of its own naming file, recipe, version and step.
+        var lines = result.Stderr.TrimEnd().Split('\n');
+        Assert.Equal(2, lines.Length);
+        Assert.EndsWith("refused (1 problem):", lines[0], StringComparison.Ordinal);
+        Assert.Contains("processes/piperazine.json, recipe PPZ-220 version 1, step S1: reaction 'BOCPZ + 3 HCL -> PPZ2HCL", lines[1], StringComparison.Ordinal);
+        Assert.Contains("Cl by 1 (reactants 3, products 2)", lines[1], StringComparison.Ordinal);
+        Assert.EndsWith("is a HCL (hydrogen chloride) missing on the right (or one too many on the left)?", lines[1].TrimEnd(), StringComparison.Ordinal);
         Assert.False(File.Exists(temp.Sub("data", "batchreconcile.db")));
+    }
+
+    [Fact]
+    public async Task Several_definition_problems_stop_start_up_one_per_line_with_a_suggestion_for_an_unknown_code()
+    {
+        using var temp = new TempFolder();
+        var config = TestConfig.CopyVerbatim(temp.Sub("config"));
+        var file = Path.Combine(config, "processes", "piperazine.json");
+        var text = File.ReadAllText(file);
+        Assert.Contains("BOCPZ + 2 HCL -> PPZ2HCL", text);
+        Assert.Contains("\"product\": \"PPZ2HCL\"", text);
+        File.WriteAllText(file, text
+            .Replace("BOCPZ + 2 HCL -> PPZ2HCL", "BOCPZ + 2 HLC -> PPZ2HCL", StringComparison.Ordinal)
+            .Replace("\"product\": \"PPZ2HCL\"", "\"product\": \"PPZ2HC\"", StringComparison.Ordinal));
+
+        var result = await ProgramRunner.RunAsync("check", SampleFile, "--config", config, "--data", temp.Sub("data"));
+
+        Assert.Equal(2, result.ExitCode);
+        var lines = result.Stderr.TrimEnd().Split('\n');
+        Assert.Equal(3, lines.Length);
+        Assert.EndsWith("refused (2 problems):", lines[0], StringComparison.Ordinal);
+        Assert.All(lines[1..], l => Assert.StartsWith("  processes/piperazine.json, recipe PPZ-220 version 1, step S1: ", l, StringComparison.Ordinal));
+        Assert.Contains(lines, l => l.Contains("product 'PPZ2HC' is not a material in any loaded file (did you mean 'PPZ2HCL'?)", StringComparison.Ordinal));
+        Assert.Contains(lines, l => l.Contains("names 'HLC', which is not a material in any loaded file (species are written with material codes) (did you mean 'HCL'?)", StringComparison.Ordinal));
     }
 
     [Fact]

@@ -106,6 +106,23 @@ public sealed class ReviewTrailTests : IDisposable
     }
 
     [Fact]
+    public async Task Log_lines_use_the_names_a_user_reads_not_the_programs_internal_ones()
+    {
+        await FirstFlagOf("2026-11-25");
+
+        var log = string.Concat(Directory.EnumerateFiles(Path.Combine(Data, "logs")).Select(File.ReadAllText));
+
+        // sample-data/README.md: BZ-0413 on the 25th is yield-low (major).
+        Assert.Matches(@"batch KB3-BZ-0413 step S\d flag yield-low \(major\): ", log);
+        Assert.Matches(@"batch KB3-[A-Z]+-\d+ new as revision 1 with \d+ flags", log);
+        Assert.Matches(@"recipe NBB-150 version 1, step S1: reaction '[^']+' was written without coefficients and was balanced to", log);
+        foreach (var internalName in new[] { "YieldLow", "BalanceGap", "YieldOverTheory", "(Major)", "(Critical)", "(Minor)", "\"New\"", "\"Revision\"" })
+        {
+            Assert.DoesNotContain(internalName, log, StringComparison.Ordinal);
+        }
+    }
+
+    [Fact]
     public async Task Digest_of_a_day_writes_three_files_and_a_rewrite_is_recorded()
     {
         await Ok("demo", "--samples", Path.Combine(RepoPaths.Root, "sample-data", "inbox"));

@@ -14,7 +14,7 @@ public class DefinitionRefusalTests
             "unbalanced reaction: names the element and the amount, with both totals",
             "\"ENB + 3 H2 -> BZC + 2 WATER\"", "\"ENB + 2 H2 -> BZC + 2 WATER\"",
             // H: reactants 9 (ENB) + 2·2 = 13; products 11 (BZC) + 2·2 = 15.
-            "BZC-900", "S2", "reaction 'ENB + 2 H2 -> BZC + 2 WATER' does not balance: H is off by 2 (reactants 13, products 15)"
+            "BZC-900", "S2", "reaction 'ENB + 2 H2 -> BZC + 2 WATER' does not balance: H differs by 2 (reactants 13, products 15): is a H2 (hydrogen) missing on the left (or one too many on the right)?"
         },
         {
             "unknown material in a reaction",
@@ -182,8 +182,8 @@ public class DefinitionRefusalTests
 
         // Partly written coefficients count as written. H: 9 + 3·2 = 15 against 11 + 2 = 13; O: 4 against 2 + 1 = 3.
         Assert.Equal(
-            "processes/bzc.json, recipe BZC-900, step S2: reaction 'ENB + 3 H2 -> BZC + WATER' does not balance: "
-            + "H is off by 2 (reactants 15, products 13); O is off by 1 (reactants 4, products 3)",
+            "processes/bzc.json, recipe BZC-900 version 1, step S2: reaction 'ENB + 3 H2 -> BZC + WATER' does not balance: "
+            + "H differs by 2 (reactants 15, products 13) and O by 1 (reactants 4, products 3): is a WATER (water) missing on the right (or one too many on the left)?",
             Assert.Single(result.Errors).ToString());
     }
 
@@ -334,10 +334,10 @@ public class DefinitionRefusalTests
             messages,
             m => Assert.StartsWith("processes/bzc.json: material 'ETOH': role 'diluent' is not known", m, StringComparison.Ordinal),
             m => Assert.StartsWith("processes/bzc.json: material 'ENB': formula 'C9H9NO4)' is not valid", m, StringComparison.Ordinal),
-            m => Assert.Equal("processes/bzc.json, recipe BZC-900, step S1: step: 'yieldPct': 'max' is required", m),
-            m => Assert.StartsWith("processes/bzc.json, recipe BZC-900, step S1: reaction 'NBA + ETOH -> ENB + WATER' names material 'ETOH', which was refused", m, StringComparison.Ordinal),
-            m => Assert.StartsWith("processes/bzc.json, recipe BZC-900, step S1: reaction 'NBA + ETOH -> ENB + WATER' names material 'ENB', which was refused", m, StringComparison.Ordinal),
-            m => Assert.StartsWith("processes/bzc.json, recipe BZC-900, step S2: reaction 'ENB + 3 H2 + PDC -> BZC + 2 WATER' names material 'ENB', which was refused", m, StringComparison.Ordinal),
-            m => Assert.StartsWith("processes/bzc.json, recipe BZC-900, step S2: reaction 'ENB + 3 H2 + PDC -> BZC + 2 WATER' names 'PDC', which is not a material", m, StringComparison.Ordinal));
+            m => Assert.Equal("processes/bzc.json, recipe BZC-900 version 1, step S1: step: 'yieldPct': 'max' is required", m),
+            m => Assert.StartsWith("processes/bzc.json, recipe BZC-900 version 1, step S1: reaction 'NBA + ETOH -> ENB + WATER' names material 'ETOH', which was refused", m, StringComparison.Ordinal),
+            m => Assert.StartsWith("processes/bzc.json, recipe BZC-900 version 1, step S1: reaction 'NBA + ETOH -> ENB + WATER' names material 'ENB', which was refused", m, StringComparison.Ordinal),
+            m => Assert.StartsWith("processes/bzc.json, recipe BZC-900 version 1, step S2: reaction 'ENB + 3 H2 + PDC -> BZC + 2 WATER' names material 'ENB', which was refused", m, StringComparison.Ordinal),
+            m => Assert.StartsWith("processes/bzc.json, recipe BZC-900 version 1, step S2: reaction 'ENB + 3 H2 + PDC -> BZC + 2 WATER' names 'PDC', which is not a material", m, StringComparison.Ordinal));
     }
 }

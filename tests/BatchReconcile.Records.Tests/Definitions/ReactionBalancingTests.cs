@@ -119,7 +119,7 @@ public class ReactionBalancingTests
         var result = LoadOneStep(IonMaterials, "MNO4 + FE2 + 8 HPLUS -> MN2 + FE3 + 4 WATER", "FE3");
 
         Assert.Equal(
-            "reaction 'MNO4 + FE2 + 8 HPLUS -> MN2 + FE3 + 4 WATER' does not balance: charge is off by 4 (reactants +9, products +5)",
+            "reaction 'MNO4 + FE2 + 8 HPLUS -> MN2 + FE3 + 4 WATER' does not balance: charge differs by 4 (reactants +9, products +5)",
             Assert.Single(result.Errors).Message);
     }
 

@@ -188,6 +188,9 @@ internal static class DefinitionFileReader
             version = null;
         }
 
+        // From here on every message names the version too: recipes are kept in several versions side by side.
+        at = file.InRecipe(code, version);
+
         var name = fields.String(item, "name", required: true, at, owner);
         var steps = new List<StepDraft>();
         if (fields.Get(item, "steps", required: true, at, owner) is { } stepsValue

@@ -4,7 +4,10 @@ namespace BatchReconcile.Records.Definitions.Loading;
 /// Something the loader did on the user's behalf that is worth a log line, such as balancing a
 /// reaction written without coefficients. Not a problem: the definitions were accepted.
 /// </summary>
-public sealed record DefinitionNote(string File, string? Recipe, string? Step, string Message)
+public sealed record DefinitionNote(string File, string? Recipe, string? Step, string Message, int? Version = null)
 {
-    public override string ToString() => DefinitionError.Describe(File, Recipe, Step, Message);
+    /// <summary>"file, recipe R version V, step S".</summary>
+    public string Where => DefinitionError.Place(File, Recipe, Version, Step);
+
+    public override string ToString() => $"{Where}: {Message}";
 }

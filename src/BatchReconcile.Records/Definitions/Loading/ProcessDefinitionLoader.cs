@@ -96,11 +96,12 @@ public static class ProcessDefinitionLoader
 
         var materials = CollectMaterials(drafts, errors);
         MaterialDraft? Find(string code) => materials.GetValueOrDefault(code.Trim());
+        var hints = new MaterialHints(materials);
 
         var recipes = new List<Recipe>();
         foreach (var recipe in CollectRecipes(drafts, errors))
         {
-            if (BuildRecipe(recipe, Find, errors, notes) is { } built)
+            if (BuildRecipe(recipe, Find, errors, notes, hints) is { } built)
             {
                 recipes.Add(built);
             }
@@ -171,16 +172,17 @@ public static class ProcessDefinitionLoader
         RecipeDraft draft,
         Func<string, MaterialDraft?> materials,
         List<DefinitionError> errors,
-        List<DefinitionNote> notes)
+        List<DefinitionNote> notes,
+        MaterialHints hints)
     {
-        var recipeAt = new DefinitionLocation(draft.File, draft.Code);
+        var recipeAt = new DefinitionLocation(draft.File, draft.Code, Version: draft.Version);
         var steps = new List<RecipeStep>();
         foreach (var step in draft.Steps)
         {
             var at = recipeAt.InStep(step.Code);
             var errorsBefore = errors.Count;
-            var reaction = RecipeReactionBuilder.Build(step.ReactionText, step.ProductCode, materials, at, errors, notes);
-            var equivalents = BuildEquivalents(step, materials, at, errors);
+            var reaction = RecipeReactionBuilder.Build(step.ReactionText, step.ProductCode, materials, at, errors, notes, hints);
+            var equivalents = BuildEquivalents(step, materials, at, errors, hints);
             if (errors.Count == errorsBefore
                 && reaction is not null
                 && step is { Code: { } code, Name: { } name, ProductCode: { } product, YieldPct: { } yieldPct, BalanceTolerancePct: { } tolerance })
@@ -209,7 +211,8 @@ public static class ProcessDefinitionLoader
         StepDraft step,
         Func<string, MaterialDraft?> materials,
         DefinitionLocation at,
-        List<DefinitionError> errors)
+        List<DefinitionError> errors,
+        MaterialHints hints)
     {
         var result = new Dictionary<string, ValueRange>(StringComparer.OrdinalIgnoreCase);
         foreach (var (code, range) in step.Equivalents)
@@ -217,7 +220,7 @@ public static class ProcessDefinitionLoader
             var material = materials(code);
             if (material is null)
             {
-                errors.Add(at.Error($"equivalents name '{code}', which is not a material in any loaded file"));
+                errors.Add(at.Error($"equivalents name '{code}', which is not a material in any loaded file{hints.Near(code)}"));
                 continue;
             }
 

@@ -22,13 +22,14 @@ internal static class RecipeReactionBuilder
         Func<string, MaterialDraft?> materials,
         DefinitionLocation at,
         List<DefinitionError> errors,
-        List<DefinitionNote> notes)
+        List<DefinitionNote> notes,
+        MaterialHints hints)
     {
         var errorsBefore = errors.Count;
         var product = productCode is null ? null : materials(productCode);
         if (productCode is not null && product is null)
         {
-            errors.Add(at.Error($"product '{productCode}' is not a material in any loaded file"));
+            errors.Add(at.Error($"product '{productCode}' is not a material in any loaded file{hints.Near(productCode)}"));
         }
         else if (product is { Vented: true })
         {
@@ -59,7 +60,7 @@ internal static class RecipeReactionBuilder
             var material = materials(term.Species);
             if (material is null)
             {
-                errors.Add(at.Error($"reaction '{text}' names '{term.Species}', which is not a material in any loaded file (species are written with material codes)"));
+                errors.Add(at.Error($"reaction '{text}' names '{term.Species}', which is not a material in any loaded file (species are written with material codes){hints.Near(term.Species)}"));
             }
             else if (!material.IsValid)
             {
@@ -119,8 +120,7 @@ internal static class RecipeReactionBuilder
             var report = BalanceCheck.Check(canonical);
             if (!report.IsBalanced)
             {
-                var details = string.Join("; ", report.Imbalances.Select(i => Describe(i, canonical)));
-                errors.Add(at.Error($"reaction '{text}' does not balance: {details}"));
+                errors.Add(at.Error($"reaction '{text}' does not balance: {Describe(report.Imbalances, canonical, hints)}"));
                 return null;
             }
 
@@ -136,19 +136,50 @@ internal static class RecipeReactionBuilder
 
     private static ReactionSpecies ToSpecies(EquationTerm term) => new(term.Species, term.EffectiveCoefficient.ToDouble());
 
-    /// <summary>"H is off by 2 (reactants 6, products 8)"; "charge is off by 2 (reactants +1, products -1)".</summary>
-    private static string Describe(Imbalance imbalance, ChemicalEquation equation)
-    {
-        var isCharge = imbalance.Quantity == Imbalance.ChargeQuantity;
-        Rational Total(IEnumerable<EquationTerm> side) => side.Aggregate(
-            Rational.Zero,
-            (sum, t) => sum + (t.EffectiveCoefficient * (isCharge
-                ? Rational.FromInteger(t.Formula.Charge)
-                : Rational.FromDecimal(t.Formula.Elements.GetValueOrDefault(imbalance.Quantity)))));
+    /// <summary>
+    /// "H differs by 2 (reactants 6, products 8) and O by 1 (reactants 2, products 3): is a WATER (water) missing on the
+    /// left (or one too many on the right)?" The hint is given when every difference points the same way and a loaded material (1 to 4 of it) makes
+    /// it up exactly; it is a question, since a wrong coefficient on the other side gives the same difference.
+    /// </summary>
+    private static string Count(int count) => count.ToString(CultureInfo.InvariantCulture);
 
-        var reactants = Total(equation.Reactants);
-        var products = Total(equation.Products);
-        string Show(Rational value) => isCharge && value.Sign > 0 ? "+" + value : value.ToString();
-        return $"{imbalance.Quantity} is off by {imbalance.Amount} (reactants {Show(reactants)}, products {Show(products)})";
+    private static string Describe(IReadOnlyList<Imbalance> imbalances, ChemicalEquation equation, MaterialHints hints)
+    {
+        var parts = new List<string>();
+        var difference = new Dictionary<string, Rational>(StringComparer.Ordinal);
+        foreach (var imbalance in imbalances)
+        {
+            var isCharge = imbalance.Quantity == Imbalance.ChargeQuantity;
+            Rational Total(IEnumerable<EquationTerm> side) => side.Aggregate(
+                Rational.Zero,
+                (sum, t) => sum + (t.EffectiveCoefficient * (isCharge
+                    ? Rational.FromInteger(t.Formula.Charge)
+                    : Rational.FromDecimal(t.Formula.Elements.GetValueOrDefault(imbalance.Quantity)))));
+
+            var reactants = Total(equation.Reactants);
+            var products = Total(equation.Products);
+            difference[imbalance.Quantity] = products - reactants;
+            string Show(Rational value) => isCharge && value.Sign > 0 ? "+" + value : value.ToString();
+            var by = parts.Count == 0 ? $"{imbalance.Quantity} differs by" : $"{imbalance.Quantity} by";
+            parts.Add($"{by} {imbalance.Amount} (reactants {Show(reactants)}, products {Show(products)})");
+        }
+
+        var text = parts.Count == 1 ? parts[0] : string.Join(", ", parts[..^1]) + " and " + parts[^1];
+        var signs = difference.Values.Select(d => d.Sign).Distinct().ToList();
+        if (signs.Count != 1)
+        {
+            return text;
+        }
+
+        // Products have more of everything: something is missing on the left (the reactants), and the other way round.
+        var (side, other) = signs[0] > 0 ? ("left", "right") : ("right", "left");
+        var missing = difference.ToDictionary(d => d.Key, d => signs[0] > 0 ? d.Value : -d.Value, StringComparer.Ordinal);
+        return hints.Balancing(missing) is { } found
+            ? found.Count == 1
+                ? $"{text}: is a {found.Material.Code} ({found.Material.Name}) missing on the {side} (or one too many on the {other})?"
+                : $"{text}: are {Count(found.Count)} {found.Material.Code} ({found.Material.Name}) missing on the {side} (or {Count(found.Count)} too many on the {other})?"
+            : difference.ContainsKey(Imbalance.ChargeQuantity)
+                ? text
+                : $"{text}: the {side} side has less of each, so a species may be missing there or a coefficient is too small";
     }
 }
