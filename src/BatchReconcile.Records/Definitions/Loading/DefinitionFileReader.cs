@@ -244,7 +244,7 @@ internal static class DefinitionFileReader
         }
 
         var sum = result.Sum(c => c.Pct);
-        if (ok && Math.Abs(sum - 100) > CompositionTolerancePct)
+        if (ok && Math.Abs(sum - 100) > CompositionTolerancePct + 1e-9)
         {
             errors.Add(at.Error(
                 $"{owner}: composition adds up to {Format(Math.Round(sum, 6))} %, not 100 % (within {Format(CompositionTolerancePct)}); give every component, the solvent too"));
