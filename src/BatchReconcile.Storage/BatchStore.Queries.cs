@@ -45,7 +45,11 @@ public sealed partial class BatchStore
                     reader.GetString(9),
                     reader.GetString(10),
                     reader.GetString(11),
-                    []);
+                    [])
+                {
+                    Route = new RouteYield(reader.NullableDouble(13), reader.NullableDouble(14), reader.NullableString(15)),
+                    Links = StoreJson.ParseLinks(reader.NullableString(16)),
+                };
             }
 
             var flags = ReadFlagsOfRevision(revisionId);
