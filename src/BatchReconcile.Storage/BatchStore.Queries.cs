@@ -310,7 +310,12 @@ public sealed partial class BatchStore
             while (reader.Read())
             {
                 list.Add(new BatchSummary(
-                    reader.GetString(0), reader.GetInt32(1), reader.GetString(2), reader.GetInt32(3), DbText.ParseDay(reader.GetString(4)), reader.GetInt32(5)));
+                    reader.GetString(0), reader.GetInt32(1), reader.GetString(2), reader.GetInt32(3), DbText.ParseDay(reader.GetString(4)), reader.GetInt32(5))
+                {
+                    StepCount = reader.GetInt32(6),
+                    RouteYieldPct = reader.NullableDouble(7),
+                    RouteNote = reader.NullableString(8),
+                });
             }
 
             return list;

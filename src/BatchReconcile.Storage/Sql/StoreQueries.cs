@@ -145,7 +145,8 @@ internal static class StoreQueries
     public static string Batches(bool byDay) =>
         """
         SELECT b.batch_id, r.revision, r.recipe, r.recipe_version, r.production_day,
-               (SELECT count(*) FROM flag f WHERE f.revision_ref = r.id)
+               (SELECT count(*) FROM flag f WHERE f.revision_ref = r.id),
+               (SELECT count(*) FROM step_result s WHERE s.revision_ref = r.id), r.route_yield_pct, r.route_note
         FROM batch_revision r
         JOIN batch b ON b.id = r.batch_ref
         WHERE r.superseded_at IS NULL
