@@ -1,6 +1,7 @@
 using BatchReconcile.Chemistry.Metrics;
 using BatchReconcile.Reconciliation.Flags;
 using BatchReconcile.Reconciliation.Outcomes;
+using BatchReconcile.Reconciliation.Route;
 using BatchReconcile.Reconciliation.Settings;
 using BatchReconcile.Reconciliation.Steps;
 using BatchReconcile.Records.Definitions;
@@ -41,10 +42,16 @@ public static class BatchReconciler
 
         var severities = SeverityTable.FromSettings(settings);
         var materials = new MaterialLookup(catalog);
-        var steps = recipe.Steps
-            .Select(step => ReconcileStep(batch, step, materials, settings, severities))
+        var computed = recipe.Steps.Select(step => Compute(batch, step, materials, settings)).ToArray();
+        var links = StepLinks.Find(computed, materials);
+        var steps = computed
+            .Select(c => StepOutcomeMapper.Map(c.Step, c.HasRows, c.Result, Flags(batch, c, links, recipe, materials, settings, severities)))
             .ToArray();
-        return new BatchOutcome(batch, steps, LastOutputAt(batch));
+        return new BatchOutcome(batch, steps, LastOutputAt(batch))
+        {
+            Links = links,
+            Route = StepLinks.Yield(computed, materials),
+        };
     }
 
     /// <summary>The latest recorded time among output rows (by instant, not by line order); null when none has one.</summary>
@@ -54,18 +61,36 @@ public static class BatchReconciler
         .Where(t => t.HasValue)
         .Max();
 
-    private static StepOutcome ReconcileStep(
-        BatchRecord batch, RecipeStep step, MaterialLookup materials, ReconciliationSettings settings, SeverityTable severities)
+    private static ComputedStep Compute(BatchRecord batch, RecipeStep step, MaterialLookup materials, ReconciliationSettings settings)
     {
         var rows = batch.RowsOfStep(step.Code).ToArray();
 
         // A step with no rows still gets its figures from empty inputs (zeros, nulls, the atom economy), so a
         // missing step looks like every other step to storage and reports; only its flag differs.
         var input = StepInputBuilder.Build(step, rows, materials, settings);
-        var result = StepMetrics.Compute(input);
-        var flags = rows.Length == 0
-            ? FlagRules.StepMissing(step, batch.BatchId, severities)
-            : FlagRules.Evaluate(step, result, materials, severities, step.ProductInWasteMaxPct ?? settings.ProductInWasteMaxPct);
-        return StepOutcomeMapper.Map(step, rows.Length > 0, result, flags);
+        return new ComputedStep(step, rows.Length > 0, input, StepMetrics.Compute(input));
+    }
+
+    private static IReadOnlyList<Flag> Flags(
+        BatchRecord batch,
+        ComputedStep c,
+        IReadOnlyList<IntermediateLink> links,
+        Recipe recipe,
+        MaterialLookup materials,
+        ReconciliationSettings settings,
+        SeverityTable severities)
+    {
+        if (!c.HasRows)
+        {
+            return FlagRules.StepMissing(c.Step, batch.BatchId, severities);
+        }
+
+        var flags = FlagRules.Evaluate(c.Step, c.Result, materials, severities, c.Step.ProductInWasteMaxPct ?? settings.ProductInWasteMaxPct).ToList();
+        foreach (var link in links.Where(l => l.ToStep == c.Step.Code && l.State == "overdrawn"))
+        {
+            flags.Add(FlagRules.IntermediateOverdrawn(link, recipe.FindStep(link.FromStep)!, c.Step, severities));
+        }
+
+        return flags;
     }
 }

@@ -179,6 +179,9 @@ public sealed partial class BatchStore
             .Set("$recipe", record.RecipeCode).Set("$recipeVersion", record.RecipeVersion)
             .Set("$content", plan.ContentSha256).Set("$day", day)
             .Set("$lastOutput", DbText.TimeOrNull(batch.Outcome.LastOutputAt)).Set("$at", at)
+            .Set("$routeYield", batch.Outcome.Route.YieldPct).Set("$routeTheoretical", batch.Outcome.Route.TheoreticalKg)
+            .Set("$routeNote", batch.Outcome.Route.Reason)
+            .Set("$links", batch.Outcome.Links.Count == 0 ? "[]" : StoreJson.Links(batch.Outcome.Links))
             .ScalarInt64();
 
         if (previousRef is { } old)

@@ -45,7 +45,11 @@ public sealed partial class BatchStore
                     reader.GetString(9),
                     reader.GetString(10),
                     reader.GetString(11),
-                    []);
+                    [])
+                {
+                    Route = new RouteYield(reader.NullableDouble(13), reader.NullableDouble(14), reader.NullableString(15)),
+                    Links = StoreJson.ParseLinks(reader.NullableString(16)),
+                };
             }
 
             var flags = ReadFlagsOfRevision(revisionId);
@@ -306,7 +310,12 @@ public sealed partial class BatchStore
             while (reader.Read())
             {
                 list.Add(new BatchSummary(
-                    reader.GetString(0), reader.GetInt32(1), reader.GetString(2), reader.GetInt32(3), DbText.ParseDay(reader.GetString(4)), reader.GetInt32(5)));
+                    reader.GetString(0), reader.GetInt32(1), reader.GetString(2), reader.GetInt32(3), DbText.ParseDay(reader.GetString(4)), reader.GetInt32(5))
+                {
+                    StepCount = reader.GetInt32(6),
+                    RouteYieldPct = reader.NullableDouble(7),
+                    RouteNote = reader.NullableString(8),
+                });
             }
 
             return list;

@@ -30,7 +30,7 @@ public sealed record StepInput
     /// <summary>Molar masses (g/mol) of charged materials outside the equation whose equivalents are wanted (a base, a catalyst).</summary>
     public IReadOnlyDictionary<string, double> ReagentMolarMasses { get; }
 
-    /// <exception cref="ArgumentException">A reagent molar mass that is not positive, or given for a species of the equation.</exception>
+    /// <exception cref="ArgumentException">A reagent molar mass that is not positive, or given for a species of the equation; a solution charge whose own code is a species.</exception>
     public static StepInput Create(
         StepReaction reaction,
         IEnumerable<ChargeRow> charges,
@@ -47,6 +47,15 @@ public sealed record StepInput
         if (chargeList.Any(c => c is null) || outputList.Any(o => o is null))
         {
             throw new ArgumentException("Rows must not be null.", nameof(charges));
+        }
+
+        var solutionInEquation = chargeList.FirstOrDefault(c =>
+            c.IsSolution && (reaction.Reactants.Any(r => r.Code == c.Material) || reaction.Product.Code == c.Material));
+        if (solutionInEquation is not null)
+        {
+            throw new ArgumentException(
+                $"'{solutionInEquation.Material}' is charged as a solution; the equation names its components, not the solution.",
+                nameof(charges));
         }
 
         var reagents = new Dictionary<string, double>(StringComparer.Ordinal);

@@ -8,8 +8,11 @@ namespace BatchReconcile.Chemistry.Metrics;
 /// outside the equation whose role is solvent or water and m_sw,rec the recovered rows with that role. So
 /// cEF − sEF = (m_sw,in − m_sw,rec)/m_act, and recovery of anything else (excess reagent) is credited in both,
 /// as the spec's cEF credits it. A reactant is never treated as solvent, even when it also serves as one
-/// (ethanol in an esterification): it is a raw material of the equation. The diluent of a reactant charged
-/// as a solution stays in sEF because it is not identified by role (conservative).</para>
+/// (ethanol in an esterification): it is a raw material of the equation. A charge of a solution material
+/// (<see cref="ChargeRow.Solution"/>) counts its solvent and water components as solvent and water; the
+/// diluent of a plain row with an assay below 100 % stays in sEF because it is not identified (conservative).</para>
+/// <para>With a reactant of the equation not charged (<see cref="StepResult.MissingReactants"/>), the yield and
+/// every figure that sets the product against the charged mass (SF, RME, RME_g, PMI, cEF, sEF) is null.</para>
 /// <para>Complete E-factor. Roschangar et al. describe cEF as assuming no recycling; the project spec subtracts
 /// m_rec, and the spec is followed here. PMI − 1 gives the no-recycling figure.</para>
 /// </remarks>
@@ -47,9 +50,12 @@ public static class StepMetrics
         double auxiliaryKg = inputKg - reactantKg;
 
         var reactantCodes = reaction.Reactants.Select(r => r.Code).ToHashSet(StringComparer.Ordinal);
-        double solventWaterInKg = input.Charges
-            .Where(c => !reactantCodes.Contains(c.Material) && c.Role is AuxiliaryRole.Solvent or AuxiliaryRole.Water)
-            .Sum(c => c.GrossKg);
+        // A plain solvent or water row counts whole (its non-assay part is solvent too); a solution counts the
+        // components whose own role is solvent or water (the water of 36 % hydrochloric acid), unless the equation
+        // consumes them (the water of a hydration is a reactant, as ethanol of an esterification is).
+        double solventWaterInKg = input.Charges.Sum(c => c.IsSolution
+            ? c.Contents.Where(k => !reactantCodes.Contains(k.Material) && k.Role is AuxiliaryRole.Solvent or AuxiliaryRole.Water).Sum(k => k.Kg)
+            : !reactantCodes.Contains(c.Material) && c.Role is AuxiliaryRole.Solvent or AuxiliaryRole.Water ? c.GrossKg : 0);
         double solventWaterRecoveredKg = input.Outputs
             .Where(o => o.Kind == OutputKind.Recovered && o.Role is AuxiliaryRole.Solvent or AuxiliaryRole.Water)
             .Sum(o => o.GrossKg);
@@ -58,6 +64,12 @@ public static class StepMetrics
         double? stoichiometricKg = maxExtent * reaction.ReactantMassPerExtent;
         double actualExtent = actualKg / reaction.Product.MassPerExtent;
         double netInputKg = inputKg - recoveredKg;
+
+        // With a reactant of the equation not recorded the step's inputs are known to be incomplete: every
+        // figure that sets the product against what was charged (RME, RME_g, PMI, the E-factors) would be
+        // computed from a wrong total, so they are not computable, like the yield, SF and theoretical.
+        bool complete = missing.Length == 0;
+        double? IfComplete(double? value) => complete ? value : null;
 
         return new StepResult
         {
@@ -80,16 +92,16 @@ public static class StepMetrics
             StoichiometricReactantKg = stoichiometricKg,
             ReactantChargedKg = reactantKg,
             StoichiometricFactor = stoichiometricKg is { } stoich ? SafeRatio.Of(reactantKg, stoich) : null,
-            ReactionMassEfficiencyPct = SafeRatio.Of(100 * actualKg, reactantKg),
+            ReactionMassEfficiencyPct = IfComplete(SafeRatio.Of(100 * actualKg, reactantKg)),
             InputKg = inputKg,
             AuxiliaryKg = auxiliaryKg,
             RecoveredKg = recoveredKg,
             MaterialRecoveryParameter = SafeRatio.Of(reactantKg, netInputKg),
-            OverallReactionMassEfficiencyPct = SafeRatio.Of(100 * actualKg, netInputKg),
-            ProcessMassIntensity = SafeRatio.Of(inputKg, actualKg),
-            CompleteEFactor = SafeRatio.Of(netInputKg - actualKg, actualKg),
-            SimpleEFactor = SafeRatio.Of(
-                inputKg - solventWaterInKg - (recoveredKg - solventWaterRecoveredKg) - actualKg, actualKg),
+            OverallReactionMassEfficiencyPct = IfComplete(SafeRatio.Of(100 * actualKg, netInputKg)),
+            ProcessMassIntensity = IfComplete(SafeRatio.Of(inputKg, actualKg)),
+            CompleteEFactor = IfComplete(SafeRatio.Of(netInputKg - actualKg, actualKg)),
+            SimpleEFactor = IfComplete(SafeRatio.Of(
+                inputKg - solventWaterInKg - (recoveredKg - solventWaterRecoveredKg) - actualKg, actualKg)),
             SolventAndWaterChargedKg = solventWaterInKg,
             SolventAndWaterRecoveredKg = solventWaterRecoveredKg,
             ProductInWasteKg = productInWasteKg,
@@ -106,7 +118,10 @@ public static class StepMetrics
         var sums = new Dictionary<string, double>(StringComparer.Ordinal);
         foreach (var charge in charges)
         {
-            sums[charge.Material] = sums.GetValueOrDefault(charge.Material) + charge.AssayKg;
+            foreach (var content in charge.Contents)
+            {
+                sums[content.Material] = sums.GetValueOrDefault(content.Material) + content.Kg;
+            }
         }
 
         return sums;

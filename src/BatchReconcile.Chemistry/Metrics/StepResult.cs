@@ -14,7 +14,8 @@ public sealed record StepResult
     /// <summary>Charged reagents outside the equation whose molar mass was supplied, for their equivalents.</summary>
     public required IReadOnlyList<ChargedAmount> Reagents { get; init; }
 
-    /// <summary>Reactants of the equation with no assay mass charged; when non-empty, ξ_max and everything built on it is null.</summary>
+    /// <summary>Reactants of the equation with no assay mass charged; when non-empty, ξ_max and everything built on it is null,
+    /// and so are RME, RME_g, PMI, cEF and sEF (the charged total is known to be incomplete).</summary>
     public required IReadOnlyList<string> MissingReactants { get; init; }
 
     /// <summary>Code of the limiting reactant L (smallest n/ν; near-ties go to the first in equation order).</summary>

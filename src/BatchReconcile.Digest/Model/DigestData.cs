@@ -32,6 +32,9 @@ public sealed record DigestData(
         ? OpenEarlierCount
         : throw new ArgumentException($"{OpenEarlier.Count} open flags listed but only {OpenEarlierCount} counted.", nameof(OpenEarlierCount));
 
+    /// <summary>The day's batches of recipes with more than one step, with their route yields; empty when none.</summary>
+    public IReadOnlyList<BatchRouteYield> RouteYields { get; init; } = [];
+
     /// <summary>The day's flags by severity, counted from <see cref="Exceptions"/> so the two never disagree.</summary>
     public SeverityCounts FlagCounts => new(
         Exceptions.Count(e => e.Severity == FlagSeverity.Critical),

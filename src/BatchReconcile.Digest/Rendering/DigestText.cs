@@ -40,6 +40,14 @@ public static class DigestText
 
     public static string Number(double value, int decimals) => Fixed(value, decimals);
 
+    /// <summary>What a step with a reactant not charged shows instead of its yield-based figures.</summary>
+    public const string NotComputable =
+        "yield, theoretical, SF, RME, PMI and E-factors are not computable (a reactant of the equation was not charged)";
+
+    /// <summary>"65.9 %", or "n/a (step S2 has no rows)".</summary>
+    public static string RouteYield(BatchRouteYield route) =>
+        route.YieldPct is { } y ? Pct(y) + " %" : $"n/a ({route.Reason ?? "not computable"})";
+
     /// <summary>A flag's value with its unit: % and kg as the digest rounds them, equivalents to 0.01.</summary>
     public static string WithUnit(double? value, string unit) => value switch
     {

@@ -81,6 +81,7 @@ public static class HtmlDigestRenderer
         Summary(html, data);
         Exceptions(html, data);
         FlaggedSteps(html, data);
+        RouteYields(html, data);
         Yields(html, data);
         Cautions(html);
 
@@ -195,6 +196,11 @@ public static class HtmlDigestRenderer
             Fact(html, "Gap", DigestText.Kg(o.GapKg, dec) + " kg");
             Fact(html, "Closure", ClosureText(step));
             Fact(html, "Tolerance", "± " + DigestText.Pct(step.TolerancePct) + " % of charged");
+            if (o.HasRows && o.LimitingReactant is null)
+            {
+                Fact(html, "Yield-based figures", "n/a: " + H(DigestText.NotComputable));
+            }
+
             html.Append("</dl>\n</header>\n");
 
             html.Append("<figure>\n").Append(LadderChart.Draw(step))
@@ -217,6 +223,26 @@ public static class HtmlDigestRenderer
         }
 
         html.Append("</section>\n");
+    }
+
+    /// <summary>The route yield of each of the day's multi-step batches (docs/computation.md, "Route yield").</summary>
+    private static void RouteYields(StringBuilder html, DigestData data)
+    {
+        if (data.RouteYields.Count == 0)
+        {
+            return;
+        }
+
+        html.Append("<section id=\"route-yields\">\n<h2>Route yields</h2>\n<table class=\"exceptions\">\n")
+            .Append("<thead><tr><th>Batch</th><th>Recipe</th><th class=\"num\">Route yield</th></tr></thead>\n<tbody>\n");
+        foreach (var r in data.RouteYields.OrderBy(r => r.BatchId, StringComparer.Ordinal))
+        {
+            html.Append("<tr><td class=\"code\">").Append(H(r.BatchId)).Append(" rev ").Append(r.Revision).Append("</td>")
+                .Append("<td class=\"code\">").Append(H(r.Recipe)).Append("</td>")
+                .Append("<td class=\"num\">").Append(H(DigestText.RouteYield(r))).Append("</td></tr>\n");
+        }
+
+        html.Append("</tbody>\n</table>\n</section>\n");
     }
 
     private static void Yields(StringBuilder html, DigestData data)

@@ -93,6 +93,23 @@ public static class MarkdownDigestRenderer
                 .Append(" kg (up to ").Append(DigestText.Kg(o.VentedMaxKg, dec)).Append(" kg), gap ").Append(DigestText.Kg(o.GapKg, dec)).Append(" kg; closure ");
             md.Append(HtmlDigestRenderer.ClosureText(step));
             md.Append(", tolerance ± ").Append(DigestText.Pct(step.TolerancePct)).Append(" %.\n\n");
+            if (o.HasRows && o.LimitingReactant is null)
+            {
+                md.Append("Yield-based figures n/a: ").Append(E(DigestText.NotComputable)).Append(".\n\n");
+            }
+        }
+
+        if (data.RouteYields.Count > 0)
+        {
+            md.Append("## Route yields\n\n");
+            Row(md, "Batch", "Recipe", "Route yield");
+            md.Append("|---|---|---:|\n");
+            foreach (var r in data.RouteYields.OrderBy(r => r.BatchId, StringComparer.Ordinal))
+            {
+                Row(md, $"{E(r.BatchId)} rev {r.Revision}", E(r.Recipe), E(DigestText.RouteYield(r)));
+            }
+
+            md.Append('\n');
         }
 
         md.Append("## Yields against limits\n\n");

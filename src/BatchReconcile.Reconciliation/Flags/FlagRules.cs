@@ -1,5 +1,6 @@
 using System.Globalization;
 using BatchReconcile.Chemistry.Metrics;
+using BatchReconcile.Reconciliation.Outcomes;
 using BatchReconcile.Reconciliation.Steps;
 using BatchReconcile.Records.Definitions;
 
@@ -132,6 +133,29 @@ internal static class FlagRules
         }
 
         return flags;
+    }
+
+    /// <summary>
+    /// intermediate-overdrawn: a later step charged more of an earlier step's product than that step isolated in the
+    /// batch (less what earlier steps drew), beyond the later step's balance tolerance (% of the isolated mass).
+    /// Measured is the charged kg, limit the isolated kg plus the tolerance.
+    /// </summary>
+    public static Flag IntermediateOverdrawn(IntermediateLink link, RecipeStep from, RecipeStep to, SeverityTable severities)
+    {
+        string available = link.AvailableKg < link.IsolatedKg * (1 - 1e-9)
+            ? $" ({Kg(link.AvailableKg)} kg of them left after earlier steps drew theirs)"
+            : string.Empty;
+        return new Flag(
+            FlagCode.IntermediateOverdrawn,
+            severities.For(FlagCode.IntermediateOverdrawn, to),
+            to.Code,
+            link.ChargedKg,
+            link.AllowedKg,
+            "kg",
+            $"Step {Name(to)} charged {Kg(link.ChargedKg)} kg of {link.Material}, but step {Name(from)} isolated only {Kg(link.IsolatedKg)} kg of it in this batch{available}, "
+            + $"{Kg(link.ChargedKg - link.AvailableKg)} kg more, beyond the tolerance of {Limit(link.TolerancePct)} % ({Kg(link.AllowedKg)} kg); "
+            + "find out where the extra material came from (another batch, a weighing or assay error) and record it under the deviation procedure.",
+            link.Material);
     }
 
     private static bool Below(double value, double limit) => value < limit - (LimitRelativeWindow * Math.Abs(limit));

@@ -61,7 +61,9 @@ internal static class StepInputBuilder
             {
                 case EntryKind.Charge:
                     var material = materials.Get(row.Material ?? throw Bug(step, row, "a charge row without a material"));
-                    charges.Add(ChargeRow.Create(material.Code, kg, row.AssayPct ?? 100, RoleOf(material)));
+                    charges.Add(material.IsSolution
+                        ? ChargeRow.Solution(material.Code, kg, SolutionContents(material, kg, row.AssayPct, materials))
+                        : ChargeRow.Create(material.Code, kg, row.AssayPct ?? 100, RoleOf(material)));
                     break;
                 case EntryKind.Product:
                     outputs.Add(namesProduct ? OutputRow.Product(kg, row.AssayPct ?? 100) : OutputRow.Waste(kg));
@@ -99,7 +101,7 @@ internal static class StepInputBuilder
         ReactionTerm Term(ReactionSpecies s)
         {
             var m = materials.Get(s.MaterialCode);
-            return ReactionTerm.Create(m.Code, s.Coefficient, m.Formula.MolarMass);
+            return ReactionTerm.Create(m.Code, s.Coefficient, MaterialLookup.MolarMass(m));
         }
 
         var productSpecies = step.Reaction.Products.FirstOrDefault(p => materials.Is(p.MaterialCode, product))
@@ -119,12 +121,37 @@ internal static class StepInputBuilder
     {
         var inEquation = reaction.Reactants.Select(r => r.Code).Append(reaction.Product.Code).ToHashSet(StringComparer.Ordinal);
         var wanted = charges
+            .SelectMany(c => c.Contents)
             .Where(c => c.Role == AuxiliaryRole.Other)
             .Select(c => c.Material)
             .Concat(step.Equivalents.Keys.Select(k => materials.Get(k).Code))
             .Where(code => !inEquation.Contains(code))
             .Distinct(StringComparer.Ordinal);
-        return wanted.ToDictionary(code => code, code => materials.Get(code).Formula.MolarMass, StringComparer.Ordinal);
+        return wanted.ToDictionary(code => code, code => MaterialLookup.MolarMass(materials.Get(code)), StringComparer.Ordinal);
+    }
+
+    /// <summary>
+    /// What a charge of <paramref name="kg"/> of a solution supplies, component by component (docs/computation.md,
+    /// "Solutions"). Without an assay, each component at its nominal share. With one, the assay is the measured mass %
+    /// of the main (first) component, and the other components share the rest in their nominal proportions:
+    /// w_i = (100 − a)·f_i/(100 − f_main). 36 % hydrochloric acid assayed at 35.0 %: HCl 35.0 %, water 65.0 %.
+    /// </summary>
+    internal static IEnumerable<ChargeContent> SolutionContents(Material solution, double kg, double? assayPct, MaterialLookup materials)
+    {
+        double nominalRest = solution.Composition.Skip(1).Sum(c => c.MassPct);
+        for (var i = 0; i < solution.Composition.Count; i++)
+        {
+            var component = solution.Composition[i];
+            double pct = assayPct switch
+            {
+                null => component.MassPct,
+                { } a when i == 0 => a,
+                { } a => (100 - a) * component.MassPct / nominalRest,
+            };
+            var material = materials.Get(component.MaterialCode);
+            yield return new ChargeContent(material.Code, ContentOf(kg, pct), RoleOf(material));
+        }
+
     }
 
     private static AuxiliaryRole RoleOf(Material material) => material.Role switch

@@ -12,4 +12,5 @@ public enum FlagCode
     ReactantMissing,
     StepMissing,
     ProductInWaste,
+    IntermediateOverdrawn,
 }

@@ -1,4 +1,13 @@
 namespace BatchReconcile.Storage.Queries;
 
 /// <summary>One line of a list of batches: the current revision and how many flags it carries.</summary>
-public sealed record BatchSummary(string BatchId, int Revision, string Recipe, int RecipeVersion, DateOnly ProductionDay, int FlagCount);
+public sealed record BatchSummary(string BatchId, int Revision, string Recipe, int RecipeVersion, DateOnly ProductionDay, int FlagCount)
+{
+    /// <summary>Steps stored with the revision (the recipe's steps).</summary>
+    public int StepCount { get; init; }
+
+    /// <summary>The stored route yield; null when not computable (<see cref="RouteNote"/> says why).</summary>
+    public double? RouteYieldPct { get; init; }
+
+    public string? RouteNote { get; init; }
+}

@@ -1,3 +1,5 @@
+using BatchReconcile.Reconciliation.Outcomes;
+
 namespace BatchReconcile.Storage.Queries;
 
 /// <summary>One revision of a batch with everything <c>batches show</c> prints.</summary>
@@ -21,6 +23,12 @@ public sealed record BatchView(
     string SourceSha256,
     IReadOnlyList<StoredStep> Steps)
 {
+    /// <summary>The route yield as stored (docs/computation.md, "Route yield").</summary>
+    public RouteYield Route { get; init; } = RouteYield.NotComputable("not stored");
+
+    /// <summary>Later steps charging an earlier step's product; null for revisions stored before links were kept.</summary>
+    public IReadOnlyList<IntermediateLink>? Links { get; init; }
+
     public bool IsCurrent => SupersededAt is null;
 
     public IEnumerable<StoredFlag> Flags => Steps.SelectMany(s => s.Flags);

@@ -14,6 +14,11 @@ public static class Migrations
         new(3, "append-only audit trail", V3AuditTrail),
         new(4, "review trail: flag review state, hash-chained audit entries, digest records, day indexes", V4ReviewTrail, ReviewTrailBackfill.Run, V4Finish),
         new(5, "raw rows: one record per batch revision (header once, lines compressed) instead of one per row", V5RawRowsPerRevision, RawRowsRepack.Run, V5Finish),
+
+        // Issue 9 is done on parallel branches that each took a number: 6 and 8 belong to the other branches and this
+        // placeholder is replaced by theirs when they are merged (the migrator wants versions without gaps).
+        new(6, "reserved for a parallel change of issue 9 (no change on this branch)", "SELECT 1;"),
+        new(7, "route yield and intermediate links per batch revision", V7RouteYield),
     ];
 
     public static int Latest => All[^1].Version;
@@ -248,6 +253,20 @@ public static class Migrations
     private const string V5Finish = """
         DROP TABLE raw_row;
         """;
+
+    // The route yield of a batch (docs/computation.md, "Route yield") and its step-to-step links. Revisions stored
+    // before this version were never linked: their route is marked as not computed (shown so, never as a number) and
+    // their links as unknown (NULL; '[]' means "no step charged an earlier step's product").
+    private const string V7RouteYield = """
+        ALTER TABLE batch_revision ADD COLUMN route_yield_pct REAL;
+        ALTER TABLE batch_revision ADD COLUMN route_theoretical_kg REAL;
+        ALTER TABLE batch_revision ADD COLUMN route_note TEXT;
+        ALTER TABLE batch_revision ADD COLUMN step_links TEXT;
+        UPDATE batch_revision SET route_note = 'not computed: stored before route yields were kept (schema version 7)';
+        """;
+
+    /// <summary>The note migration 7 gives revisions stored before it.</summary>
+    public const string RouteNotComputedBefore7 = "not computed: stored before route yields were kept (schema version 7)";
 
     private const string GenesisHash = "0000000000000000000000000000000000000000000000000000000000000000";
 }

@@ -47,10 +47,13 @@ internal sealed class CommitStatements : IDisposable
             ("$batch", T), ("$at", T));
         InsertRevision = Make(
             """
-            INSERT INTO batch_revision (batch_ref, revision, ingest_ref, recipe, recipe_version, content_sha256, production_day, last_output_at, stored_at)
-            VALUES ($batch, $revision, $ingest, $recipe, $recipeVersion, $content, $day, $lastOutput, $at) RETURNING id
+            INSERT INTO batch_revision (batch_ref, revision, ingest_ref, recipe, recipe_version, content_sha256, production_day, last_output_at, stored_at,
+                route_yield_pct, route_theoretical_kg, route_note, step_links)
+            VALUES ($batch, $revision, $ingest, $recipe, $recipeVersion, $content, $day, $lastOutput, $at,
+                $routeYield, $routeTheoretical, $routeNote, $links) RETURNING id
             """,
-            ("$batch", I), ("$revision", I), ("$ingest", I), ("$recipe", T), ("$recipeVersion", I), ("$content", T), ("$day", T), ("$lastOutput", T), ("$at", T));
+            ("$batch", I), ("$revision", I), ("$ingest", I), ("$recipe", T), ("$recipeVersion", I), ("$content", T), ("$day", T), ("$lastOutput", T), ("$at", T),
+            ("$routeYield", R), ("$routeTheoretical", R), ("$routeNote", T), ("$links", T));
         Supersede = Make(
             "UPDATE batch_revision SET superseded_at = $at WHERE id = $old AND superseded_at IS NULL",
             ("$at", T), ("$old", I));

@@ -23,6 +23,12 @@ internal static class StoreJson
     public static IReadOnlyList<LadderRung> ParseLadder(string json) =>
         JsonSerializer.Deserialize<List<LadderRung>>(json, Options) ?? [];
 
+    public static string Links(IReadOnlyList<IntermediateLink> links) => JsonSerializer.Serialize(links, Options);
+
+    /// <summary>The stored links; null when the revision was stored before links were kept (migration 7).</summary>
+    public static IReadOnlyList<IntermediateLink>? ParseLinks(string? json) =>
+        json is null ? null : JsonSerializer.Deserialize<List<IntermediateLink>>(json, Options) ?? [];
+
     /// <summary>One row as schema versions 1 to 4 stored it: [name, value] pairs in header order (read by migration 5).</summary>
     public static IReadOnlyList<KeyValuePair<string, string>> ParseRawFields(string json) =>
         (JsonSerializer.Deserialize<List<string[]>>(json, Options) ?? [])

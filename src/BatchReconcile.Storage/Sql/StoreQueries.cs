@@ -6,7 +6,8 @@ internal static class StoreQueries
     public const string Revision = """
         SELECT r.id, r.revision, r.recipe, r.recipe_version, r.production_day, r.last_output_at, r.stored_at,
                r.superseded_at, n.revision, r.content_sha256, i.file_name, i.sha256,
-               (SELECT count(*) FROM batch_revision x WHERE x.batch_ref = b.id)
+               (SELECT count(*) FROM batch_revision x WHERE x.batch_ref = b.id),
+               r.route_yield_pct, r.route_theoretical_kg, r.route_note, r.step_links
         FROM batch b
         JOIN batch_revision r ON r.batch_ref = b.id
         JOIN ingest_log i ON i.id = r.ingest_ref
@@ -144,7 +145,8 @@ internal static class StoreQueries
     public static string Batches(bool byDay) =>
         """
         SELECT b.batch_id, r.revision, r.recipe, r.recipe_version, r.production_day,
-               (SELECT count(*) FROM flag f WHERE f.revision_ref = r.id)
+               (SELECT count(*) FROM flag f WHERE f.revision_ref = r.id),
+               (SELECT count(*) FROM step_result s WHERE s.revision_ref = r.id), r.route_yield_pct, r.route_note
         FROM batch_revision r
         JOIN batch b ON b.id = r.batch_ref
         WHERE r.superseded_at IS NULL

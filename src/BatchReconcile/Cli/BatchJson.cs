@@ -51,7 +51,19 @@ public static class BatchJson
         int Revisions,
         string SourceFile,
         IReadOnlyList<FlagJson> Flags,
-        IReadOnlyList<StepJson> Steps);
+        IReadOnlyList<StepJson> Steps,
+        double? RouteYieldPct,
+        double? RouteTheoreticalKg,
+        string? RouteYieldNote,
+        IReadOnlyList<LinkJson>? Intermediates);
+
+    /// <summary>A later step charging an earlier step's product; state "overdrawn", "held-back" or "matched".</summary>
+    public sealed record LinkJson(string Material, string FromStep, string ToStep, double IsolatedKg, double AvailableKg, double ChargedKg, double HeldBackKg, double TolerancePct, string State);
+
+    public static LinkJson Link(IntermediateLink l) => new(
+        l.Material, l.FromStep, l.ToStep, Round(l.IsolatedKg), Round(l.AvailableKg), Round(l.ChargedKg), Round(l.HeldBackKg), Round(l.TolerancePct), l.State);
+
+    public static double? RoundPct(double? value) => Round(value);
 
     public static BatchShowJson From(BatchView view)
     {
@@ -66,7 +78,11 @@ public static class BatchJson
             view.RevisionCount,
             view.SourceFile,
             steps.SelectMany(s => s.Flags).ToList(),
-            steps);
+            steps,
+            Round(view.Route.YieldPct),
+            Round(view.Route.TheoreticalKg),
+            view.Route.Reason,
+            view.Links?.Select(Link).ToList());
     }
 
     public static FlagJson Flag(Flag flag, long? id) =>

@@ -10,8 +10,39 @@ public static class BatchText
 {
     private static readonly CultureInfo Inv = CultureInfo.InvariantCulture;
 
-    public static void Write(TextWriter o, BatchOutcome batch, DateOnly day) =>
+    public static void Write(TextWriter o, BatchOutcome batch, DateOnly day)
+    {
         Write(o, Header(batch.Batch.BatchId, batch.Batch.RecipeCode, batch.Batch.RecipeVersion, day, null), batch.Batch.Warnings, batch.Steps.Select(s => (s, (IReadOnlyList<(Flag, long?)>)s.Flags.Select(f => (f, (long?)null)).ToList())));
+        WriteRoute(o, batch.Route, batch.Links);
+    }
+
+    /// <summary>The batch's step links and route yield (docs/computation.md, "Steps of one batch").</summary>
+    /// <param name="links">Null for a revision stored before links were kept.</param>
+    public static void WriteRoute(TextWriter o, RouteYield route, IReadOnlyList<IntermediateLink>? links)
+    {
+        if (links is null)
+        {
+            o.WriteLine("  intermediates: not recorded (stored before step links were kept)");
+        }
+        else
+        {
+            foreach (var l in links)
+            {
+                var what = l.State switch
+                {
+                    "overdrawn" => string.Create(Inv, $"overdrawn by {l.ChargedKg - l.AvailableKg:F3} kg (flagged)"),
+                    "held-back" => string.Create(Inv, $"held back {l.HeldBackKg:F3} kg (carried over, not flagged)"),
+                    _ => "matched",
+                };
+                var available = l.AvailableKg < l.IsolatedKg ? string.Create(Inv, $" ({l.AvailableKg:F3} kg left)") : string.Empty;
+                o.WriteLine(string.Create(Inv, $"  intermediate {l.Material}: {l.FromStep} isolated {l.IsolatedKg:F3} kg{available}, {l.ToStep} charged {l.ChargedKg:F3} kg: {what}"));
+            }
+        }
+
+        o.WriteLine(route.YieldPct is { } y
+            ? string.Create(Inv, $"  route yield {y:F2} % (theoretical {Kg(route.TheoreticalKg)} from the first step's limiting reactant)")
+            : $"  route yield: not computable ({route.Reason})");
+    }
 
     public static string Header(string batch, string recipe, int version, DateOnly day, string? revision) =>
         string.Create(Inv, $"batch {batch}: recipe {recipe} v{version}{revision}, production day {day:yyyy-MM-dd}");
@@ -29,6 +60,11 @@ public static class BatchText
         {
             o.WriteLine($"  step {s.Step}{(s.HasRows ? string.Empty : " (no rows)")}");
             o.WriteLine(string.Create(Inv, $"    limiting reactant {s.LimitingReactant ?? "-"}; theoretical {Kg(s.TheoreticalKg)}, actual {Kg(s.ActualKg)}, yield {Pct(s.YieldPct)}"));
+            if (s.HasRows && s.LimitingReactant is null)
+            {
+                o.WriteLine($"    {Digest.Rendering.DigestText.NotComputable}");
+            }
+
             o.WriteLine(string.Create(Inv, $"    atom economy {Pct(s.AtomEconomyPct)}, SF {Num(s.StoichiometricFactor)}, RME {Pct(s.RmePct)}, PMI {Num(s.Pmi)}, cEF {Num(s.CompleteEFactor)}, sEF {Num(s.SimpleEFactor)}"));
             o.WriteLine(string.Create(Inv, $"    mass in {Kg(s.MassInKg)}, out {Kg(s.MassOutKg)}, vented {Kg(s.VentedKg)}, gap {Kg(s.GapKg)}, closure {Pct(s.ClosurePct)} (2u ≈ {Kg(2 * s.CombinedUncertaintyKg)})"));
             foreach (var rung in s.Ladder)

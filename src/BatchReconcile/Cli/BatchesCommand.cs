@@ -35,6 +35,7 @@ public static class BatchesCommand
                 BatchText.Header(view.BatchId, view.Recipe, view.RecipeVersion, view.ProductionDay, state),
                 [$"from {view.SourceFile}"],
                 view.Steps.Select(s => (s.Outcome, (IReadOnlyList<(Reconciliation.Flags.Flag, long?)>)s.Flags.Select(f => (f.Flag, (long?)f.Id)).ToList())));
+            BatchText.WriteRoute(stdout, view.Route, view.Links);
             return ExitCodes.Success;
         }, storeOnly: true));
 

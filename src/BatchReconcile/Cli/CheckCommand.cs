@@ -68,9 +68,23 @@ public static class CheckCommand
         b.Outcome.Batch.RecipeVersion,
         b.ProductionDay.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture),
         b.Outcome.Batch.Warnings,
-        b.Outcome.Steps.Select(s => BatchJson.Step(s, s.Flags.Select(f => BatchJson.Flag(f, null)).ToList())).ToList());
+        b.Outcome.Steps.Select(s => BatchJson.Step(s, s.Flags.Select(f => BatchJson.Flag(f, null)).ToList())).ToList(),
+        BatchJson.RoundPct(b.Outcome.Route.YieldPct),
+        BatchJson.RoundPct(b.Outcome.Route.TheoreticalKg),
+        b.Outcome.Route.Reason,
+        b.Outcome.Links.Select(BatchJson.Link).ToList());
 
     private sealed record CheckJson(string File, bool Valid, IReadOnlyList<BatchJson.ErrorJson> Errors, IReadOnlyList<CheckBatchJson> Batches);
 
-    private sealed record CheckBatchJson(string Batch, string Recipe, int RecipeVersion, string ProductionDay, IReadOnlyList<string> Warnings, IReadOnlyList<BatchJson.StepJson> Steps);
+    private sealed record CheckBatchJson(
+        string Batch,
+        string Recipe,
+        int RecipeVersion,
+        string ProductionDay,
+        IReadOnlyList<string> Warnings,
+        IReadOnlyList<BatchJson.StepJson> Steps,
+        double? RouteYieldPct,
+        double? RouteTheoreticalKg,
+        string? RouteYieldNote,
+        IReadOnlyList<BatchJson.LinkJson> Intermediates);
 }

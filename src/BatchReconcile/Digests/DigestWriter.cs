@@ -105,7 +105,13 @@ public sealed class DigestWriter(
             openEarlier,
             exceptions,
             flagged,
-            yields);
+            yields)
+        {
+            RouteYields = store.ListBatches(day)
+                .Where(b => b.StepCount > 1)
+                .Select(b => new BatchRouteYield(b.BatchId, b.Revision, b.Recipe, b.RouteYieldPct, b.RouteNote))
+                .ToList(),
+        };
     }
 
     private DigestFlaggedStep ToDigest(Storage.Queries.FlaggedStep f)

@@ -110,7 +110,14 @@ public class FlagContentTests
 
         // The gross balance is still judged: 1204.0 - 1206.55 = -2.55 kg.
         Close.Equal(-2.55, o.GapKg, "gap");
-        Close.Equal(100 * 148.8 / 197.0, o.RmePct, "RME needs no limiting reactant");
+
+        // Issue 9: with a reactant not recorded the charged total is known to be incomplete, so every figure that
+        // sets the product against it is not computable either (it was RME = 100 · 148.8 / 197.0 before).
+        Assert.Null(o.RmePct);
+        Assert.Null(o.OverallRmePct);
+        Assert.Null(o.Pmi);
+        Assert.Null(o.CompleteEFactor);
+        Assert.Null(o.SimpleEFactor);
     }
 
     [Fact]

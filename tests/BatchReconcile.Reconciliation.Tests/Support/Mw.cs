@@ -28,4 +28,11 @@ internal static class Mw
     public const double TosylChloride = 190.641;  // C7H7ClO2S: 84.077 + 7.056 + 35.45 + 31.998 + 32.06
     public const double BenzylTosylate = 262.323; // C14H14O3S: 168.154 + 14.112 + 47.997 + 32.06
     public const double Triethylamine = 101.193;  // C6H15N: 72.066 + 15.120 + 14.007
+
+    public const double BenzylCyanide = 117.151;      // C8H7N: 96.088 + 7.056 + 14.007
+    public const double Phenylacetamide = 135.166;    // C8H9NO: 96.088 + 9.072 + 14.007 + 15.999
+    public const double Benzylamine = 107.156;        // C7H9N: 84.077 + 9.072 + 14.007
+    public const double BenzylamineHcl = 143.614;     // C7H10ClN: 84.077 + 10.080 + 35.45 + 14.007
+    public const double SodiumHypochlorite = 74.439;  // NaClO: 22.990 + 35.45 + 15.999 (Na 22.990)
+    public const double SodiumHydroxide = 39.997;     // NaOH: 22.990 + 15.999 + 1.008
 }

@@ -9,6 +9,13 @@ internal static class Plant
     public static Material M(string code, string name, string formula, MaterialRole role = MaterialRole.Reactant, bool vented = false) =>
         new(code, name, Formula.Parse(formula), role, vented, "test-definitions.json");
 
+    /// <summary>A solution material: components (code, mass %), the main one first.</summary>
+    public static Material Solution(string code, string name, params (string Code, double Pct)[] components) =>
+        new(code, name, null, MaterialRole.Reactant, false, "test-definitions.json")
+        {
+            Composition = components.Select(c => new SolutionComponent(c.Code, c.Pct)).ToArray(),
+        };
+
     /// <summary>A balanced reaction from (coefficient, code) lists; the text is rebuilt for messages.</summary>
     public static RecipeReaction Reaction((double Nu, string Code)[] reactants, (double Nu, string Code)[] products)
     {

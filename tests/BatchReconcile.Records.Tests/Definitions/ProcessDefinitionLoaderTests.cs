@@ -82,7 +82,7 @@ public class ProcessDefinitionLoaderTests
         Assert.Null(s2.ProductInWasteMaxPct);
         var etoh = result.Catalog.FindMaterial("ETOH")!;
         Assert.Equal(MaterialRole.Solvent, etoh.Role);
-        Assert.Equal("C2H6O", etoh.Formula.Hill);
+        Assert.Equal("C2H6O", etoh.Formula!.Hill);
         Assert.Equal(MaterialRole.Reactant, result.Catalog.FindMaterial("NBA")!.Role);
     }
 

@@ -114,7 +114,8 @@ internal static class DefinitionFileReader
         var code = fields.String(item, "code", required: true, at, path);
         var owner = code is null ? path : $"material '{code}'";
         var name = fields.String(item, "name", required: true, at, owner);
-        var formulaText = fields.String(item, "formula", required: true, at, owner);
+        var hasComposition = item.TryGetProperty("composition", out _);
+        var formulaText = fields.String(item, "formula", required: !hasComposition, at, owner);
         var roleText = fields.String(item, "role", required: false, at, owner);
         var vented = fields.Boolean(item, "vented", at, owner) ?? false;
 
@@ -143,6 +144,12 @@ internal static class DefinitionFileReader
             }
         }
 
+        IReadOnlyList<(string Code, double Pct)>? composition = null;
+        if (hasComposition)
+        {
+            composition = ReadComposition(item, code, owner, formulaText is not null, roleText is not null, vented, at, fields, errors);
+        }
+
         MaterialRole? role = MaterialRole.Reactant;
         if (roleText is not null)
         {
@@ -155,7 +162,96 @@ internal static class DefinitionFileReader
         }
 
         // A refused material is still kept by code, so reactions naming it are not also told it is unknown.
-        return code is null ? null : new MaterialDraft(code, name, formula, role, vented, errors.Count == errorsBefore, at.File, path);
+        return code is null ? null : new MaterialDraft(code, name, formula, role, vented, errors.Count == errorsBefore, at.File, path) { Composition = composition };
+    }
+
+    /// <summary>Mass fractions a solution may be off 100 % in all, for rounded label values (33.3 + 66.7).</summary>
+    internal const double CompositionTolerancePct = 0.01;
+
+    /// <summary>
+    /// "composition": { "HCL": 36, "WATER": 64 }: component codes with their mass %, the main component first.
+    /// Checked here: the shape, each share in (0, 100], the sum 100 ± 0.01, no repeats, and that the material has no
+    /// formula, role or vented of its own. The components themselves are checked by the loader (they may be in other files).
+    /// </summary>
+    private static List<(string Code, double Pct)>? ReadComposition(
+        JsonElement item,
+        string? code,
+        string owner,
+        bool hasFormula,
+        bool hasRole,
+        bool vented,
+        DefinitionLocation at,
+        JsonFields fields,
+        List<DefinitionError> errors)
+    {
+        var value = item.GetProperty("composition");
+        if (hasFormula)
+        {
+            errors.Add(at.Error($"{owner}: give either 'formula' (a substance) or 'composition' (a solution of other materials), not both"));
+        }
+
+        if (hasRole)
+        {
+            errors.Add(at.Error($"{owner}: a solution has no 'role' of its own; each component counts with the role of its own material"));
+        }
+
+        if (vented)
+        {
+            errors.Add(at.Error($"{owner}: a solution is charged and weighed as a liquid, so it cannot be 'vented'"));
+        }
+
+        if (!fields.IsKind(value, JsonValueKind.Object, at, $"{owner}: 'composition' (expected {{ \"CODE\": mass %, ... }})"))
+        {
+            return null;
+        }
+
+        var result = new List<(string Code, double Pct)>();
+        var ok = true;
+        foreach (var property in value.EnumerateObject())
+        {
+            var component = property.Name.Trim();
+            var pct = fields.Number(property.Value, at, $"{owner}: composition of '{component}'");
+            if (pct is null)
+            {
+                ok = false;
+                continue;
+            }
+
+            if (pct.Value <= 0 || pct.Value > 100)
+            {
+                errors.Add(at.Error($"{owner}: composition of '{component}' must be more than 0 and at most 100 (mass %), found {Format(pct.Value)}"));
+                ok = false;
+            }
+
+            if (code is not null && string.Equals(component, code, StringComparison.OrdinalIgnoreCase))
+            {
+                errors.Add(at.Error($"{owner}: its composition names the solution itself"));
+                ok = false;
+            }
+            else if (result.Any(c => string.Equals(c.Code, component, StringComparison.OrdinalIgnoreCase)))
+            {
+                errors.Add(at.Error($"{owner}: composition names '{component}' twice"));
+                ok = false;
+            }
+
+            result.Add((component, pct.Value));
+        }
+
+        if (result.Count < 2)
+        {
+            errors.Add(at.Error($"{owner}: a composition needs at least two components (a material of one component is that material; give it a formula)"));
+            return null;
+        }
+
+        var sum = result.Sum(c => c.Pct);
+        if (ok && Math.Abs(sum - 100) > CompositionTolerancePct + 1e-9)
+        {
+            errors.Add(at.Error(
+                $"{owner}: composition adds up to {Format(Math.Round(sum, 6))} %, not 100 % (within {Format(CompositionTolerancePct)}); give every component, the solvent too"));
+            ok = false;
+        }
+
+        return ok ? result : null;
     }
 
     private static MaterialRole? ParseRole(string text)

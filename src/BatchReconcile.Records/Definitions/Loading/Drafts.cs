@@ -15,7 +15,11 @@ internal sealed record MaterialDraft(
     bool Vented,
     bool IsValid,
     string File,
-    string Path);
+    string Path)
+{
+    /// <summary>A solution's components (code as written, mass %), the main one first; null for a substance.</summary>
+    public IReadOnlyList<(string Code, double Pct)>? Composition { get; init; }
+}
 
 internal sealed record RecipeDraft(
     string? Code,

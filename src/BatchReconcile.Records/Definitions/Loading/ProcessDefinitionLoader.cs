@@ -96,6 +96,7 @@ public static class ProcessDefinitionLoader
 
         var materials = CollectMaterials(drafts, errors);
         MaterialDraft? Find(string code) => materials.GetValueOrDefault(code.Trim());
+        CheckSolutions(materials.Values, Find, errors);
         var hints = new MaterialHints(materials);
 
         var recipes = new List<Recipe>();
@@ -114,7 +115,10 @@ public static class ProcessDefinitionLoader
         }
 
         var catalog = new ProcessCatalog(
-            materials.Values.Select(m => new Material(m.Code, m.Name!, m.Formula!, m.Role!.Value, m.Vented, m.File)),
+            materials.Values.Select(m => new Material(m.Code, m.Name!, m.Formula, m.Role!.Value, m.Vented, m.File)
+            {
+                Composition = m.Composition?.Select(c => new SolutionComponent(Find(c.Code)!.Code, c.Pct)).ToArray() ?? [],
+            }),
             recipes);
         return ProcessDefinitionLoadResult.Success(catalog, notes, files);
     }
@@ -137,6 +141,32 @@ public static class ProcessDefinitionLoader
         }
 
         return byCode;
+    }
+
+    /// <summary>Each component of a solution is a substance of some loaded file: known, with a formula, not a solution itself.</summary>
+    private static void CheckSolutions(IEnumerable<MaterialDraft> materials, Func<string, MaterialDraft?> find, List<DefinitionError> errors)
+    {
+        foreach (var solution in materials.Where(m => m.Composition is not null))
+        {
+            var at = new DefinitionLocation(solution.File);
+            foreach (var (code, _) in solution.Composition!)
+            {
+                var component = find(code);
+                if (component is null)
+                {
+                    errors.Add(at.Error($"material '{solution.Code}': composition names '{code}', which is not a material in any loaded file"));
+                }
+                else if (component.Composition is not null)
+                {
+                    errors.Add(at.Error(
+                        $"material '{solution.Code}': composition names '{component.Code}', which is itself a solution; give the components of both directly"));
+                }
+                else if (component.Formula is null)
+                {
+                    errors.Add(at.Error($"material '{solution.Code}': composition names '{component.Code}', which was refused ({component.File}, see its own error)"));
+                }
+            }
+        }
     }
 
     private static List<RecipeDraft> CollectRecipes(List<FileDraft> drafts, List<DefinitionError> errors)
@@ -224,6 +254,13 @@ public static class ProcessDefinitionLoader
                 continue;
             }
 
+            if (material.Composition is not null)
+            {
+                errors.Add(at.Error(
+                    $"equivalents name '{material.Code}', a solution; name the component whose equivalents are meant ({ComponentList(material)})"));
+                continue;
+            }
+
             if (step.ProductCode is not null && string.Equals(material.Code, materials(step.ProductCode)?.Code, StringComparison.Ordinal))
             {
                 errors.Add(at.Error($"equivalents name the step's product '{material.Code}'; equivalents are for charged materials"));
@@ -238,4 +275,8 @@ public static class ProcessDefinitionLoader
 
         return result;
     }
+
+    /// <summary>"HCL 36 %, WATER 64 %" for messages about a solution.</summary>
+    internal static string ComponentList(MaterialDraft solution) =>
+        string.Join(", ", solution.Composition!.Select(c => $"{c.Code} {c.Pct.ToString("0.###", CultureInfo.InvariantCulture)} %"));
 }

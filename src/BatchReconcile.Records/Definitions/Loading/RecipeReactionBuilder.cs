@@ -31,6 +31,10 @@ internal static class RecipeReactionBuilder
         {
             errors.Add(at.Error($"product '{productCode}' is not a material in any loaded file{hints.Near(productCode)}"));
         }
+        else if (product is { Composition: not null })
+        {
+            errors.Add(at.Error($"product '{product.Code}' is a solution ({ProcessDefinitionLoader.ComponentList(product)}); the product is the substance isolated"));
+        }
         else if (product is { Vented: true })
         {
             errors.Add(at.Error($"product '{product.Code}' is a vented material; a vented gas is never weighed, so it cannot be the isolated product"));
@@ -61,6 +65,12 @@ internal static class RecipeReactionBuilder
             if (material is null)
             {
                 errors.Add(at.Error($"reaction '{text}' names '{term.Species}', which is not a material in any loaded file (species are written with material codes){hints.Near(term.Species)}"));
+            }
+            else if (material.Composition is not null)
+            {
+                errors.Add(at.Error(
+                    $"reaction '{text}' names '{material.Code}', a solution ({ProcessDefinitionLoader.ComponentList(material)}); write the component that reacts "
+                    + $"(e.g. {material.Composition[0].Code}) in the reaction and charge {material.Code} in the batch record: its components are counted from its composition"));
             }
             else if (!material.IsValid)
             {
