@@ -135,6 +135,13 @@ public sealed partial class BatchStore
             batches.Add((batch.Outcome.Batch.Rows.Count > 0 ? batch.Outcome.Batch.Rows[0].Line : 0, result));
         });
 
+        if (end.IsChanged)
+        {
+            // Not the file's fault and not a fault of the store: nothing of it stays, not even its log entry.
+            rollBackFile();
+            return new FileCommitResult(file.FileName, file.Sha256, null, null, [], 0, new FileChangedException(file.FileName));
+        }
+
         if (!end.IsValid)
         {
             // Nothing of the file may stay, not even its provisional log entry: the same bytes are

@@ -38,6 +38,11 @@ public sealed class InboxService(
     {
         var options = intake.Value;
         catalog.Watch();
+        if (ReadingLink.RemoveStale(folders.Inbox) is > 0 and var stale)
+        {
+            logger.LogInformation("Removed {Count} hidden second names of files left from an earlier run that stopped while reading", stale);
+        }
+
         using var watcher = new InboxWatcher(
             new InboxOptions(folders.Inbox, TimeSpan.FromSeconds(options.SettleSeconds), TimeSpan.FromSeconds(options.RescanSeconds)),
             time);
