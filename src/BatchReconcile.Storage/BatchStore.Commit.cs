@@ -35,6 +35,11 @@ public sealed partial class BatchStore
     public IReadOnlyList<FileCommitResult> Commit(IReadOnlyList<FileIngest> files)
     {
         ArgumentNullException.ThrowIfNull(files);
+        return Guarded(() => CommitGroup(files));
+    }
+
+    private IReadOnlyList<FileCommitResult> CommitGroup(IReadOnlyList<FileIngest> files)
+    {
         lock (_gate)
         {
             ThrowIfDisposed();
@@ -53,7 +58,10 @@ public sealed partial class BatchStore
                         results.Add(CommitFile(statements, file, now, () => transaction.Rollback(savepoint)));
                         transaction.Release(savepoint);
                     }
-                    catch (Exception failure) when (failure is SqliteException or InvalidDataException or NotSupportedException or ArgumentException)
+                    // A fault of the database itself (locked, full, read-only, I/O) is not the file's: it abandons the
+                    // whole group (Guarded turns it into a transient StoreException) and every file stays in the inbox.
+                    catch (Exception failure) when (failure is SqliteException s ? StoreFaults.Describe(s) is null
+                        : failure is InvalidDataException or NotSupportedException or ArgumentException)
                     {
                         RollBackFile(transaction, savepoint, file, failure);
                         results.Add(new FileCommitResult(file.FileName, file.Sha256, null, null, [], file.Errors.Count, failure));
@@ -126,6 +134,13 @@ public sealed partial class BatchStore
                 : StoreRevision(sql, file, ingestId, batch, plan, batchRef, currentRef, now);
             batches.Add((batch.Outcome.Batch.Rows.Count > 0 ? batch.Outcome.Batch.Rows[0].Line : 0, result));
         });
+
+        if (end.IsChanged)
+        {
+            // Not the file's fault and not a fault of the store: nothing of it stays, not even its log entry.
+            rollBackFile();
+            return new FileCommitResult(file.FileName, file.Sha256, null, null, [], 0, new FileChangedException(file.FileName));
+        }
 
         if (!end.IsValid)
         {

@@ -35,7 +35,11 @@ public sealed partial class BatchStore
     /// <param name="note">Required for every change.</param>
     /// <param name="outcome">Required when closing, not allowed otherwise; <see cref="CloseOutcome.Superseded"/> is the system's.</param>
     /// <param name="deviationRef">Required with <see cref="CloseOutcome.Deviation"/>, not allowed otherwise.</param>
-    public ReviewResult ReviewFlag(long flagId, ReviewState to, string by, string note, CloseOutcome? outcome = null, string? deviationRef = null)
+    /// <exception cref="StoreException">The database could not be written (locked, full, read-only); nothing was changed.</exception>
+    public ReviewResult ReviewFlag(long flagId, ReviewState to, string by, string note, CloseOutcome? outcome = null, string? deviationRef = null) =>
+        Guarded(() => ReviewFlagInStore(flagId, to, by, note, outcome, deviationRef));
+
+    private ReviewResult ReviewFlagInStore(long flagId, ReviewState to, string by, string note, CloseOutcome? outcome, string? deviationRef)
     {
         var id = flagId.ToString(CultureInfo.InvariantCulture);
         var inputProblem = CheckReviewInput(flagId, to, by, note, outcome, deviationRef);

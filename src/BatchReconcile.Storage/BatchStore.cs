@@ -14,14 +14,20 @@ namespace BatchReconcile.Storage;
 /// </summary>
 public sealed partial class BatchStore : IDisposable
 {
-    private readonly SqliteConnection _connection;
     private readonly TimeProvider _time;
+    private readonly StoreSettings _settings;
     private readonly Lock _gate = new();
+    private SqliteConnection _connection;
     private bool _disposed;
 
-    private BatchStore(SqliteConnection connection, TimeProvider time)
+    // Set when a fault may have left the connection unable to write even after the cause is gone (SQLite opens
+    // a file it may not write read-only, and keeps it so): the next operation opens the database afresh.
+    private bool _reopen;
+
+    private BatchStore(SqliteConnection connection, StoreSettings settings, TimeProvider time)
     {
         _connection = connection;
+        _settings = settings;
         _time = time;
     }
 
@@ -41,17 +47,59 @@ public sealed partial class BatchStore : IDisposable
             Directory.CreateDirectory(directory);
         }
 
-        var connection = StoreConnectionFactory.Open(databasePath, settings);
+        SqliteConnection? connection = null;
         try
         {
+            connection = StoreConnectionFactory.Open(databasePath, settings);
             time ??= TimeProvider.System;
             SchemaMigrator.MigrateToLatest(connection, time);
-            return new BatchStore(connection, time);
+            return new BatchStore(connection, settings, time);
+        }
+        catch (SqliteException e) when (StoreFaults.Translate(e, Path.GetFullPath(databasePath)) is { } fault)
+        {
+            connection?.Dispose();
+            throw fault;
         }
         catch
         {
-            connection.Dispose();
+            connection?.Dispose();
             throw;
+        }
+    }
+
+    /// <summary>Runs a store operation, turning a fault of the database (<see cref="StoreFaults"/>) into a transient <see cref="StoreException"/>.</summary>
+    private T Guarded<T>(Func<T> operation)
+    {
+        try
+        {
+            ReopenIfNeeded();
+            return operation();
+        }
+        catch (SqliteException e) when (StoreFaults.Translate(e, DatabasePath) is { } fault)
+        {
+            lock (_gate)
+            {
+                _reopen |= StoreFaults.NeedsReopen(e);
+            }
+
+            throw fault;
+        }
+    }
+
+    private void ReopenIfNeeded()
+    {
+        lock (_gate)
+        {
+            ThrowIfDisposed();
+            if (!_reopen)
+            {
+                return;
+            }
+
+            var fresh = StoreConnectionFactory.Open(_connection.DataSource, _settings);
+            _connection.Dispose();
+            _connection = fresh;
+            _reopen = false;
         }
     }
 

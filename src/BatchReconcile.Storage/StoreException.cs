@@ -19,4 +19,10 @@ public sealed class StoreException : Exception
     public StoreException()
     {
     }
+
+    /// <summary>
+    /// The fault lies with the database and may pass (locked, disk full, read-only, I/O): nothing of the operation
+    /// was stored, and the same operation may be tried again later. The service waits and retries.
+    /// </summary>
+    public bool Transient { get; init; }
 }

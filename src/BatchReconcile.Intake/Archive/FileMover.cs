@@ -42,6 +42,50 @@ public sealed class FileMover
     public MovedFile MoveToArchive(string sourcePath) =>
         MoveInto(Path.GetFullPath(sourcePath), Archive.DirectoryFor(_time.GetUtcNow()), forceCopy: false);
 
+    /// <summary>Moves a file to the archive under another name (a hidden second name of the file, archived under the file's own).</summary>
+    public MovedFile MoveToArchive(string sourcePath, string name) =>
+        MoveInto(Path.GetFullPath(sourcePath), Archive.DirectoryFor(_time.GetUtcNow()), forceCopy: false, name);
+
+    /// <summary>
+    /// Writes bytes that were read from an inbox file into today's archive folder under the file's name (a free
+    /// name as <see cref="MoveToArchive"/> takes): used when the inbox file changed after it was read, so that the
+    /// archive holds what was stored while the new content stays in the inbox as a new arrival.
+    /// </summary>
+    public MovedFile WriteToArchive(string sourcePath, ReadOnlySpan<byte> content)
+    {
+        var source = Path.GetFullPath(sourcePath);
+        var directory = Archive.DirectoryFor(_time.GetUtcNow());
+        Directory.CreateDirectory(directory);
+        var name = Path.GetFileName(source);
+        for (var n = 1; n <= MaxSuffix; n++)
+        {
+            var destination = Path.Combine(directory, WithSuffix(name, n));
+            if (File.Exists(destination))
+            {
+                continue;
+            }
+
+            var temp = TempNameBeside(destination);
+            try
+            {
+                using (var output = new FileStream(temp, FileMode.CreateNew, FileAccess.Write, FileShare.None))
+                {
+                    output.Write(content);
+                    output.Flush(flushToDisk: true);
+                }
+
+                File.Move(temp, destination, overwrite: false);
+                return new MovedFile(source, destination, CopiedAcrossVolumes: true);
+            }
+            catch (IOException) when (File.Exists(destination))
+            {
+                TryDelete(temp);
+            }
+        }
+
+        throw new IOException($"No free name for '{name}' in '{directory}' after {MaxSuffix} attempts.");
+    }
+
     /// <summary>
     /// Moves a rejected file to quarantine and writes <paramref name="reportText"/> (UTF-8) beside it as
     /// <c>NAME.report.txt</c>, where NAME is the file's name in quarantine.
@@ -102,11 +146,11 @@ public sealed class FileMover
     }
 
     /// <summary>Moves a file into a folder under a free name; <paramref name="forceCopy"/> exercises the cross-volume path in tests.</summary>
-    internal MovedFile MoveInto(string source, string destinationDirectory, bool forceCopy)
+    internal MovedFile MoveInto(string source, string destinationDirectory, bool forceCopy, string? name = null)
     {
         Directory.CreateDirectory(destinationDirectory);
         var copy = forceCopy || !IsSameVolume(source, destinationDirectory);
-        var name = Path.GetFileName(source);
+        name ??= Path.GetFileName(source);
         for (var n = 1; n <= MaxSuffix; n++)
         {
             var destination = Path.Combine(destinationDirectory, WithSuffix(name, n));

@@ -1,4 +1,5 @@
 using System.CommandLine;
+using BatchReconcile.Storage;
 
 namespace BatchReconcile.Cli;
 
@@ -38,6 +39,13 @@ public static class CommandLine
         {
             stderr.WriteLine($"batchreconcile: {e.Message}");
             return ExitCodes.BadInput;
+        }
+        catch (StoreException e)
+        {
+            // The database failed while the command ran (locked, full, read-only): one line that says what to do.
+            // What the command had not committed was not stored; files not yet stored stay where they are.
+            stderr.WriteLine($"batchreconcile: database: {e.Message}; nothing more was stored, try again once that is fixed");
+            return ExitCodes.UnexpectedFailure;
         }
         catch (Exception e)
         {

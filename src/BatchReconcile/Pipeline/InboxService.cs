@@ -1,6 +1,7 @@
 using BatchReconcile.Hosting;
 using BatchReconcile.Intake.Inbox;
 using BatchReconcile.Storage;
+using Microsoft.Data.Sqlite;
 using Microsoft.Extensions.Hosting;
 using Microsoft.Extensions.Logging;
 using Microsoft.Extensions.Options;
@@ -12,8 +13,12 @@ namespace BatchReconcile.Pipeline;
 /// order, several files per transaction when a backlog is waiting.
 /// </summary>
 /// <remarks>
-/// On stop (SIGTERM, Ctrl-C) the group in hand is finished or, if it was not yet committed, abandoned
-/// untouched: its files stay in the inbox and are taken again at the next start.
+/// <para>On stop (SIGTERM, Ctrl-C) the group in hand is finished or, if it was not yet committed, abandoned
+/// untouched: its files stay in the inbox and are taken again at the next start.</para>
+/// <para>A fault of the database (locked past the busy timeout, disk full, read-only, I/O error) never stops the
+/// service and never sends a file to quarantine: the group's files stay in the inbox, one error is logged, and the
+/// service waits before it takes files again, 1 s after the first failure and twice as long after each further
+/// one, at most <see cref="MaxBackOff"/>, until the database takes a group again.</para>
 /// </remarks>
 public sealed class InboxService(
     IngestPipeline pipeline,
@@ -23,16 +28,29 @@ public sealed class InboxService(
     TimeProvider time,
     ILogger<InboxService> logger) : BackgroundService
 {
+    /// <summary>The longest wait between two tries while the database keeps failing.</summary>
+    public static readonly TimeSpan MaxBackOff = TimeSpan.FromSeconds(60);
+
+    /// <summary>The wait after the first failure; doubled after each further one.</summary>
+    public static readonly TimeSpan FirstBackOff = TimeSpan.FromSeconds(1);
+
     protected override async Task ExecuteAsync(CancellationToken stoppingToken)
     {
         var options = intake.Value;
         catalog.Watch();
+        if (ReadingLink.RemoveStale(folders.Inbox) is > 0 and var stale)
+        {
+            logger.LogInformation("Removed {Count} hidden second names of files left from an earlier run that stopped while reading", stale);
+        }
+
         using var watcher = new InboxWatcher(
             new InboxOptions(folders.Inbox, TimeSpan.FromSeconds(options.SettleSeconds), TimeSpan.FromSeconds(options.RescanSeconds)),
             time);
         watcher.Start();
         logger.LogInformation("Watching {Inbox} (settle {Settle} s, rescan {Rescan} s)", folders.Inbox, options.SettleSeconds, options.RescanSeconds);
 
+        TimeSpan? backOff = null;
+        DateTimeOffset? failingSince = null;
         while (!stoppingToken.IsCancellationRequested)
         {
             IReadOnlyList<ReadyFile> ready;
@@ -50,11 +68,27 @@ public sealed class InboxService(
                 // The group is processed to the end even when a stop arrives meanwhile: committing and
                 // moving are short, and a half-moved group would only be sorted out at the next start.
                 pipeline.Process(ready, CancellationToken.None);
+                if (failingSince is { } since)
+                {
+                    logger.LogInformation("The database takes files again after {Seconds:0} s of failures; intake resumed", (time.GetUtcNow() - since).TotalSeconds);
+                    (backOff, failingSince) = (null, null);
+                }
             }
-            catch (StoreException e)
+            catch (Exception e) when (e is StoreException or SqliteException)
             {
-                logger.LogError(e, "The database refused a group of {Count} files; they stay in the inbox and are tried again", ready.Count);
-                await Task.Delay(TimeSpan.FromSeconds(options.RescanSeconds), time, stoppingToken).ConfigureAwait(ConfigureAwaitOptions.SuppressThrowing);
+                var reason = e is SqliteException s ? StoreFaults.Describe(s) ?? s.Message : e.Message;
+                backOff = backOff is { } last ? TimeSpan.FromTicks(Math.Min(last.Ticks * 2, MaxBackOff.Ticks)) : FirstBackOff;
+                if (failingSince is null)
+                {
+                    failingSince = time.GetUtcNow();
+                    logger.LogError("The database refused a group of {Count} files: {Reason}. The files stay in the inbox; trying again in {Wait} s, then at growing intervals up to {Max} s", ready.Count, reason, backOff.Value.TotalSeconds, MaxBackOff.TotalSeconds);
+                }
+                else
+                {
+                    logger.LogWarning("The database still refuses files ({Reason}); next try in {Wait} s", reason, backOff.Value.TotalSeconds);
+                }
+
+                await Task.Delay(backOff.Value, time, stoppingToken).ConfigureAwait(ConfigureAwaitOptions.SuppressThrowing);
             }
             catch (Exception e) when (e is IOException or UnauthorizedAccessException)
             {

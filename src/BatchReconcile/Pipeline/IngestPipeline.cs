@@ -37,10 +37,39 @@ public sealed class IngestPipeline(
     /// work on the same bytes (a group holds at most its file count times this).</summary>
     public const int InMemoryMaxBytes = 64 * 1024;
 
+    /// <summary>How many times a file that changes while it is read is read again within one call, before it is left in the inbox.</summary>
+    public const int MaxReads = 3;
+
     /// <summary>Processes a group of ready files in one transaction; returns one outcome per file, in order.</summary>
-    /// <remarks>New files are read and reconciled on a second thread (<see cref="ReadAhead"/>) while the
-    /// store writes the batches of the files before them; the store still takes them one by one, in order.</remarks>
+    /// <remarks><para>New files are read and reconciled on a second thread (<see cref="ReadAhead"/>) while the
+    /// store writes the batches of the files before them; the store still takes them one by one, in order.</para>
+    /// <para>A file whose bytes change while it is read is not stored at all and is read again, with its new
+    /// content, up to <see cref="MaxReads"/> times; a file still changing then stays in the inbox
+    /// (<see cref="IOException"/>; the service takes it again later).</para></remarks>
     public IReadOnlyList<FileOutcome> Process(IReadOnlyList<ReadyFile> files, CancellationToken cancellation = default)
+    {
+        var outcomes = ProcessOnce(files, cancellation).ToArray();
+        for (var read = 2; read <= MaxReads && outcomes.Any(o => o is null); read++)
+        {
+            var again = Enumerable.Range(0, files.Count).Where(i => outcomes[i] is null).ToList();
+            var retried = ProcessOnce(again.Select(i => Refreshed(files[i])).ToList(), cancellation);
+            for (var k = 0; k < again.Count; k++)
+            {
+                outcomes[again[k]] = retried[k];
+            }
+        }
+
+        var still = Enumerable.Range(0, files.Count).Where(i => outcomes[i] is null).Select(i => files[i].Name).ToList();
+        if (still.Count > 0)
+        {
+            throw new IOException($"{string.Join(", ", still)} changed each of the {MaxReads} times it was read; left in the inbox to settle");
+        }
+
+        return outcomes!;
+    }
+
+    /// <summary>One transaction over the group; null for a file that changed while it was read (nothing of it stored or moved).</summary>
+    private IReadOnlyList<FileOutcome?> ProcessOnce(IReadOnlyList<ReadyFile> files, CancellationToken cancellation)
     {
         IReadOnlyList<FileCommitResult> results;
         var prepared = new List<PreparedFile>(files.Count);
@@ -63,6 +92,12 @@ public sealed class IngestPipeline(
         return prepared.Zip(results, Settle).ToList();
     }
 
+    private static ReadyFile Refreshed(ReadyFile file)
+    {
+        var info = new FileInfo(file.FullPath);
+        return info.Exists ? file with { Size = info.Length, LastWriteUtc = info.LastWriteTimeUtc } : file;
+    }
+
     /// <summary>
     /// Hashes one file and decides how it is to be stored; stores nothing. A new file is not stored here:
     /// it is read and reconciled by <paramref name="readAhead"/> and stored batch by batch inside the
@@ -76,6 +111,7 @@ public sealed class IngestPipeline(
     private PreparedFile Prepare(ReadyFile file, ReadAhead readAhead)
     {
         byte[]? content = null;
+        string? readPath = null;
         string sha256;
         if (file.Size <= InMemoryMaxBytes)
         {
@@ -84,20 +120,22 @@ public sealed class IngestPipeline(
         }
         else
         {
-            sha256 = FileHash.Sha256Of(file.FullPath);
+            // Read under a second name: a rename over the inbox name meanwhile leaves these bytes reachable for the archive.
+            readPath = ReadingLink.Create(file.FullPath) ?? file.FullPath;
+            sha256 = FileHash.Sha256Of(readPath);
         }
 
         var known = store.FindFile(sha256);
         if (known is null)
         {
-            var index = readAhead.Add(storeBatch => Produce(file, content, sha256, storeBatch));
-            return new PreparedFile(file, FileIngest.Streamed(file.Name, sha256, file.ArrivedAt, storeBatch => readAhead.Consume(index, storeBatch)), null);
+            var index = readAhead.Add(storeBatch => Produce(file with { FullPath = readPath ?? file.FullPath }, content, sha256, storeBatch));
+            return new PreparedFile(file, FileIngest.Streamed(file.Name, sha256, file.ArrivedAt, storeBatch => readAhead.Consume(index, storeBatch)), null, content, readPath);
         }
 
         if (known.Outcome != IngestOutcome.Quarantined)
         {
             // Same bytes as a file already taken: no need to read it again.
-            return new PreparedFile(file, FileIngest.Accepted(file.Name, sha256, file.ArrivedAt, []), known);
+            return new PreparedFile(file, FileIngest.Accepted(file.Name, sha256, file.ArrivedAt, []), known, content, readPath);
         }
 
         // Same bytes as a file quarantined before: logged as a duplicate and sent back to quarantine
@@ -106,7 +144,7 @@ public sealed class IngestPipeline(
         var ingest = scan.IsValid
             ? FileIngest.Accepted(file.Name, sha256, file.ArrivedAt, [])
             : FileIngest.Quarantined(file.Name, sha256, file.ArrivedAt, scan.Errors, QuarantineReport.Render(file.Name, sha256, scan.Errors, time.GetUtcNow()));
-        return new PreparedFile(file, ingest, known);
+        return new PreparedFile(file, ingest, known, content, readPath);
     }
 
     /// <summary>Reads and reconciles one file without storing or moving anything (the <c>check</c> command).</summary>
@@ -127,7 +165,25 @@ public sealed class IngestPipeline(
         var current = catalog.Current;
         try
         {
-            var scan = Scan(file, content, current, batch => storeBatch(ReconcileOrFault(batch, current, file.ArrivedAt).Precompute()));
+            void OnBatch(BatchRecord batch) => storeBatch(ReconcileOrFault(batch, current, file.ArrivedAt).Precompute());
+            ExportScanResult scan;
+            if (content is null)
+            {
+                // A file too large for memory is read a second time to be parsed: the bytes parsed are hashed as they
+                // are read, and a file rewritten in between is not stored (it is read again) rather than stored as
+                // one content under the hash of another.
+                using var hashing = new HashingReadStream(new FileStream(file.FullPath, FileMode.Open, FileAccess.Read, FileShare.Read, 81920, FileOptions.SequentialScan));
+                scan = ExportReader.Scan(hashing, file.Name, current, OnBatch);
+                if (!string.Equals(hashing.FinishHash(), sha256, StringComparison.Ordinal))
+                {
+                    return StreamedFileEnd.Changed;
+                }
+            }
+            else
+            {
+                scan = Scan(file, content, current, OnBatch);
+            }
+
             return scan.IsValid
                 ? StreamedFileEnd.Valid
                 : StreamedFileEnd.Rejected(scan.Errors, QuarantineReport.Render(file.Name, sha256, scan.Errors, time.GetUtcNow()));
@@ -173,10 +229,31 @@ public sealed class IngestPipeline(
         return new BatchIngest(outcome, calendar.DayOfBatch(outcome, arrivedAt));
     }
 
-    private FileOutcome Settle(PreparedFile prepared, FileCommitResult result)
+    private FileOutcome? Settle(PreparedFile prepared, FileCommitResult result)
+    {
+        try
+        {
+            return SettleFile(prepared, result);
+        }
+        finally
+        {
+            if (prepared.ReadPath is { } link && !string.Equals(link, prepared.Source.FullPath, StringComparison.Ordinal) && File.Exists(link))
+            {
+                File.Delete(link);
+            }
+        }
+    }
+
+    private FileOutcome? SettleFile(PreparedFile prepared, FileCommitResult result)
     {
         var file = prepared.Source;
         using var _ = LogContext.PushProperty("File", file.Name);
+        if (result.Failure is FileChangedException changed)
+        {
+            logger.LogWarning("{Reason}", changed.Message);
+            return null;
+        }
+
         if (!result.Committed)
         {
             // A storage failure of this file alone (its savepoint was rolled back): nothing of it is
@@ -201,7 +278,7 @@ public sealed class IngestPipeline(
             return new FileOutcome(file.Name, result.Sha256, outcome, [], errors, moved.File.DestinationPath, moved.ReportPath);
         }
 
-        var archived = mover.MoveToArchive(file.FullPath);
+        var archived = Archive(prepared, result.Sha256);
         foreach (var batch in result.Batches)
         {
             // Names as the user reads them (new, revision, yield-low, major), never the program's enum names.
@@ -225,6 +302,41 @@ public sealed class IngestPipeline(
         }
 
         return new FileOutcome(file.Name, result.Sha256, outcome, result.Batches, [], archived.DestinationPath, null);
+    }
+
+    /// <summary>
+    /// Moves the file to the archive, once it is sure that the file in the inbox is still the one that was read (same
+    /// size and SHA-256). When it is not, the inbox file is new content and stays there
+    /// as a new arrival; the archive gets the bytes that were read when they are still in memory.
+    /// </summary>
+    private MovedFile Archive(PreparedFile prepared, string sha256)
+    {
+        var file = prepared.Source;
+        var info = new FileInfo(file.FullPath);
+        // A small file is compared by size first and then read again (it is in the page cache); a large one is hashed again.
+        var same = info.Exists && (prepared.Content is { } read
+            ? info.Length == read.Length && string.Equals(FileHash.Sha256Of(File.ReadAllBytes(file.FullPath)), sha256, StringComparison.Ordinal)
+            : string.Equals(FileHash.Sha256Of(file.FullPath), sha256, StringComparison.Ordinal));
+        if (same)
+        {
+            return mover.MoveToArchive(file.FullPath);
+        }
+
+        if (prepared.Content is { } content)
+        {
+            logger.LogWarning("{File} changed after it was read; the content that was stored is archived from memory and the new content stays in the inbox as a new arrival", file.Name);
+            return mover.WriteToArchive(file.FullPath, content);
+        }
+
+        if (prepared.ReadPath is { } link && !string.Equals(link, file.FullPath, StringComparison.Ordinal)
+            && string.Equals(FileHash.Sha256Of(link), sha256, StringComparison.Ordinal))
+        {
+            logger.LogWarning("{File} was replaced after it was read; the content that was stored is archived and the new content stays in the inbox as a new arrival", file.Name);
+            return mover.MoveToArchive(link, file.Name);
+        }
+
+        logger.LogError("{File} changed after it was read and before it was archived; the stored content ({Sha256}) is kept in the database's raw rows but not in the archive, and the new content stays in the inbox as a new arrival", file.Name, sha256);
+        return new MovedFile(file.FullPath, file.FullPath, false);
     }
 
     /// <summary>Carries a reconciling fault out of the reader's callback, apart from the store's own errors.</summary>
