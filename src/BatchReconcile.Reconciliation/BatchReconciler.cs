@@ -1,3 +1,4 @@
+using System.Globalization;
 using BatchReconcile.Chemistry.Metrics;
 using BatchReconcile.Reconciliation.Flags;
 using BatchReconcile.Reconciliation.Outcomes;
@@ -42,9 +43,41 @@ public static class BatchReconciler
         var severities = SeverityTable.FromSettings(settings);
         var materials = new MaterialLookup(catalog);
         var steps = recipe.Steps
-            .Select(step => ReconcileStep(batch, step, materials, settings, severities))
+            .Select((step, i) => ReconcileStep(batch, step, materials, settings, severities, i == 0 ? VersionFlags(batch, recipe, catalog, severities) : []))
             .ToArray();
         return new BatchOutcome(batch, steps, LastOutputAt(batch));
+    }
+
+    /// <summary>
+    /// recipe-version-unstated when neither the export nor an effective date chose the version. Flags are
+    /// stored per step, and this one concerns the whole batch, so it goes with the recipe's first step.
+    /// </summary>
+    private static IReadOnlyList<Flag> VersionFlags(BatchRecord batch, Recipe recipe, ProcessCatalog catalog, SeverityTable severities)
+    {
+        if (batch.RecipeVersionSource != RecipeVersionSource.Newest)
+        {
+            return [];
+        }
+
+        var first = recipe.Steps[0];
+        var dated = catalog.Recipes
+            .Where(r => string.Equals(r.Code, recipe.Code, StringComparison.OrdinalIgnoreCase) && r.EffectiveFrom is not null)
+            .Select(r => r.EffectiveFrom!.Value)
+            .ToList();
+        var why = batch.FirstRecordedDate is not { } date ? "none of its rows has a recorded_at"
+            : dated.Count == 0 ? $"no version of recipe {recipe.Code} has an effectiveFrom date"
+            : string.Create(CultureInfo.InvariantCulture, $"its first recorded time ({date:yyyy-MM-dd}, local date) is before the earliest effectiveFrom of recipe {recipe.Code} ({dated.Min():yyyy-MM-dd})");
+        return
+        [
+            new Flag(
+                FlagCode.RecipeVersionUnstated,
+                severities.For(FlagCode.RecipeVersionUnstated, first),
+                first.Code,
+                null,
+                null,
+                string.Empty,
+                string.Create(CultureInfo.InvariantCulture, $"The export of batch {batch.BatchId} gives no recipe_version and {why}, so the batch was reconciled against the newest version, {recipe.Code} v{recipe.Version}; confirm the version from the batch record and, if it was another, have the export sent again with recipe_version filled in (or give the versions effectiveFrom dates).")),
+        ];
     }
 
     /// <summary>The latest recorded time among output rows (by instant, not by line order); null when none has one.</summary>
@@ -55,7 +88,7 @@ public static class BatchReconciler
         .Max();
 
     private static StepOutcome ReconcileStep(
-        BatchRecord batch, RecipeStep step, MaterialLookup materials, ReconciliationSettings settings, SeverityTable severities)
+        BatchRecord batch, RecipeStep step, MaterialLookup materials, ReconciliationSettings settings, SeverityTable severities, IReadOnlyList<Flag> batchFlags)
     {
         var rows = batch.RowsOfStep(step.Code).ToArray();
 
@@ -63,9 +96,10 @@ public static class BatchReconciler
         // missing step looks like every other step to storage and reports; only its flag differs.
         var input = StepInputBuilder.Build(step, rows, materials, settings);
         var result = StepMetrics.Compute(input);
+        var inWasteMax = step.ProductInWasteMaxPct ?? settings.ProductInWasteMaxPct;
         var flags = rows.Length == 0
             ? FlagRules.StepMissing(step, batch.BatchId, severities)
-            : FlagRules.Evaluate(step, result, materials, severities, step.ProductInWasteMaxPct ?? settings.ProductInWasteMaxPct);
-        return StepOutcomeMapper.Map(step, rows.Length > 0, result, flags);
+            : FlagRules.Evaluate(step, result, materials, severities, inWasteMax);
+        return StepOutcomeMapper.Map(step, rows.Length > 0, result, [.. batchFlags, .. flags], inWasteMax);
     }
 }

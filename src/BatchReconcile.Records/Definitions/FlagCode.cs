@@ -12,4 +12,7 @@ public enum FlagCode
     ReactantMissing,
     StepMissing,
     ProductInWaste,
+
+    /// <summary>The export gave no recipe version and no effective date decided one; the newest was used.</summary>
+    RecipeVersionUnstated,
 }

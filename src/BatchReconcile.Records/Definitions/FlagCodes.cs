@@ -16,6 +16,7 @@ public static class FlagCodes
         (FlagCode.ReactantMissing, "reactant-missing"),
         (FlagCode.StepMissing, "step-missing"),
         (FlagCode.ProductInWaste, "product-in-waste"),
+        (FlagCode.RecipeVersionUnstated, "recipe-version-unstated"),
     ];
 
     public static IEnumerable<FlagCode> All => Codes.Select(c => c.Code);

@@ -1,3 +1,5 @@
+using BatchReconcile.Records.Exports;
+
 namespace BatchReconcile.Storage.Queries;
 
 /// <summary>One revision of a batch with everything <c>batches show</c> prints.</summary>
@@ -21,6 +23,9 @@ public sealed record BatchView(
     string SourceSha256,
     IReadOnlyList<StoredStep> Steps)
 {
+    /// <summary>How <see cref="RecipeVersion"/> was chosen; null when unknown (a revision stored before this was recorded).</summary>
+    public RecipeVersionSource? RecipeVersionSource { get; init; }
+
     public bool IsCurrent => SupersededAt is null;
 
     public IEnumerable<StoredFlag> Flags => Steps.SelectMany(s => s.Flags);

@@ -66,11 +66,12 @@ public static class CheckCommand
         b.BatchId,
         b.Outcome.Batch.RecipeCode,
         b.Outcome.Batch.RecipeVersion,
+        b.Outcome.Batch.RecipeVersionSource.ToText(),
         b.ProductionDay.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture),
         b.Outcome.Batch.Warnings,
         b.Outcome.Steps.Select(s => BatchJson.Step(s, s.Flags.Select(f => BatchJson.Flag(f, null)).ToList())).ToList());
 
     private sealed record CheckJson(string File, bool Valid, IReadOnlyList<BatchJson.ErrorJson> Errors, IReadOnlyList<CheckBatchJson> Batches);
 
-    private sealed record CheckBatchJson(string Batch, string Recipe, int RecipeVersion, string ProductionDay, IReadOnlyList<string> Warnings, IReadOnlyList<BatchJson.StepJson> Steps);
+    private sealed record CheckBatchJson(string Batch, string Recipe, int RecipeVersion, string RecipeVersionSource, string ProductionDay, IReadOnlyList<string> Warnings, IReadOnlyList<BatchJson.StepJson> Steps);
 }

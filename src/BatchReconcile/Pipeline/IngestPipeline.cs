@@ -102,7 +102,7 @@ public sealed class IngestPipeline(
 
         // Same bytes as a file quarantined before: logged as a duplicate and sent back to quarantine
         // with a fresh report, so only its errors are wanted; its batches are dropped as they are read.
-        var scan = Scan(file, content, catalog.Current, static _ => { });
+        var scan = Scan(file, content, catalog.Current, calendar.Zone, static _ => { });
         var ingest = scan.IsValid
             ? FileIngest.Accepted(file.Name, sha256, file.ArrivedAt, [])
             : FileIngest.Quarantined(file.Name, sha256, file.ArrivedAt, scan.Errors, QuarantineReport.Render(file.Name, sha256, scan.Errors, time.GetUtcNow()));
@@ -113,7 +113,7 @@ public sealed class IngestPipeline(
     public (ExportReadResult Read, IReadOnlyList<BatchIngest> Batches) Check(string path, DateTimeOffset arrivedAt)
     {
         var current = catalog.Current;
-        var read = ExportReader.Read(path, Path.GetFileName(path), current);
+        var read = ExportReader.Read(path, Path.GetFileName(path), current, calendar.Zone);
         var batches = read.IsValid ? read.Batches.Select(b => Reconcile(b, current, arrivedAt)).ToList() : [];
         return (read, batches);
     }
@@ -127,7 +127,7 @@ public sealed class IngestPipeline(
         var current = catalog.Current;
         try
         {
-            var scan = Scan(file, content, current, batch => storeBatch(ReconcileOrFault(batch, current, file.ArrivedAt).Precompute()));
+            var scan = Scan(file, content, current, calendar.Zone, batch => storeBatch(ReconcileOrFault(batch, current, file.ArrivedAt).Precompute()));
             return scan.IsValid
                 ? StreamedFileEnd.Valid
                 : StreamedFileEnd.Rejected(scan.Errors, QuarantineReport.Render(file.Name, sha256, scan.Errors, time.GetUtcNow()));
@@ -142,15 +142,15 @@ public sealed class IngestPipeline(
         }
     }
 
-    private static ExportScanResult Scan(ReadyFile file, byte[]? content, ProcessCatalog current, Action<BatchRecord> onBatch)
+    private static ExportScanResult Scan(ReadyFile file, byte[]? content, ProcessCatalog current, TimeZoneInfo zone, Action<BatchRecord> onBatch)
     {
         if (content is null)
         {
-            return ExportReader.Scan(file.FullPath, file.Name, current, onBatch);
+            return ExportReader.Scan(file.FullPath, file.Name, current, zone, onBatch);
         }
 
         using var stream = new MemoryStream(content, writable: false);
-        return ExportReader.Scan(stream, file.Name, current, onBatch);
+        return ExportReader.Scan(stream, file.Name, current, zone, onBatch);
     }
 
     private BatchIngest ReconcileOrFault(BatchRecord batch, ProcessCatalog current, DateTimeOffset arrivedAt)
@@ -204,7 +204,9 @@ public sealed class IngestPipeline(
         var archived = mover.MoveToArchive(file.FullPath);
         foreach (var batch in result.Batches)
         {
-            logger.LogInformation("{File} batch {Batch} {Disposition} as revision {Revision} with {FlagCount} flags", file.Name, batch.BatchId, batch.Disposition, batch.Revision, batch.FlagIds.Count);
+            logger.LogInformation(
+                "{File} batch {Batch} {Disposition} as revision {Revision} with {FlagCount} flags; recipe {Recipe} v{RecipeVersion} ({RecipeVersionSource})",
+                file.Name, batch.BatchId, batch.Disposition, batch.Revision, batch.FlagIds.Count, batch.Recipe, batch.RecipeVersion, batch.RecipeVersionSource.ToText());
         }
 
         if (outcome == IngestOutcome.Duplicate)
