@@ -14,7 +14,7 @@ public class ChartTests
         var outcome = Steps.Outcome("S3", massIn: 400, reactant: 150, recovered: 120, stoich: 130, theory: 100, actual: 104,
             inWaste: 1, inSamples: 0, massOut: 390, vented: 2, ventedMax: 3, u: 0.8);
         var data = SeededDigest.Create();
-        var one = new DigestData(data.SiteName, data.Day, data.GeneratedAt, 1, 1, 0, [], [], [new FlaggedStep("B-7", 1, "PX-204", outcome, 2, 1)], []);
+        var one = new DigestData(data.SiteName, data.Day, data.GeneratedAt, 1, 1, 0, [], [], [new FlaggedStep("B-7", 1, "PX-204", Steps.Judged(outcome, 2, 1))], []);
 
         var html = HtmlDigestRenderer.Render(one);
         var ladder = XElement.Parse(Html.SvgFragments(html)[0]);
@@ -57,7 +57,7 @@ public class ChartTests
     {
         var data = SeededDigest.Create();
         var outcome = data.FlaggedSteps[0].Outcome with { ClosurePct = null };
-        var one = new DigestData(data.SiteName, data.Day, data.GeneratedAt, 1, 1, 0, [], [], [new FlaggedStep("B-7", 1, "PX-204", outcome, 2, 1)], []);
+        var one = new DigestData(data.SiteName, data.Day, data.GeneratedAt, 1, 1, 0, [], [], [new FlaggedStep("B-7", 1, "PX-204", Steps.Judged(outcome, 2, 1))], []);
 
         var html = HtmlDigestRenderer.Render(one);
         Assert.Single(Html.SvgFragments(html));

@@ -233,7 +233,7 @@ public class DefinitionRefusalTests
 
         Assert.True(result.IsSuccess, result.ToString());
         Assert.Equal(98, result.Catalog.FindRecipe("BZC-900", 1)!.Steps[1].YieldPct.Max);
-        Assert.Equal(97, result.Catalog.FindRecipe("BZC-900")!.Steps[1].YieldPct.Max);
+        Assert.Equal(97, result.Catalog.NewestRecipe("BZC-900")!.Steps[1].YieldPct.Max);
     }
 
     [Fact]

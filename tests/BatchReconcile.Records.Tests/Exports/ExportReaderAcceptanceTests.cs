@@ -217,7 +217,7 @@ public class ExportReaderAcceptanceTests
         {
             File.WriteAllText(path, ExportCsv.File([.. ExportCsv.GoodBatch("B1"), .. ExportCsv.GoodBatch("B2")]), new UTF8Encoding(true));
 
-            var result = ExportReader.Read(path, "B.csv", TestCatalog.Instance);
+            var result = ExportReader.Read(path, "B.csv", TestCatalog.Instance, TimeZoneInfo.Utc);
 
             Assert.Equal(["B1", "B2"], result.Batches.Select(b => b.BatchId));
             Assert.Equal("B.csv", result.FileName);
