@@ -279,10 +279,10 @@ public static class HtmlDigestRenderer
         ? $"{DigestText.Pct(c)} % ± {ClosureChart.Known(ClosureChart.ExpandedUncertaintyPct(step))} (k = {(step.CoverageFactor is { } k ? DigestText.Number(k, 1) : "unknown")})"
         : "n/a";
 
-    /// <summary>"88.0 to 98.0 %", with "unknown" for a limit not stored.</summary>
-    internal static string YieldLimits(RecipeStepYields step) => step.MinYieldPct is null && step.MaxYieldPct is null
+    /// <summary>"88.0 to 98.0 %" (without the unit for a column headed in %), with "unknown" for a limit not stored.</summary>
+    internal static string YieldLimits(RecipeStepYields step, bool unit = true) => step.MinYieldPct is null && step.MaxYieldPct is null
         ? "unknown"
-        : $"{(step.MinYieldPct is { } min ? DigestText.Pct(min) : "unknown")} to {(step.MaxYieldPct is { } max ? DigestText.Pct(max) : "unknown")} %";
+        : $"{(step.MinYieldPct is { } min ? DigestText.Pct(min) : "unknown")} to {(step.MaxYieldPct is { } max ? DigestText.Pct(max) : "unknown")}{(unit ? " %" : "")}";
 
     // Limits are inclusive and a value within 1e-9 (relative) of one counts as on it, as the flag rules say.
     internal static string Within(RecipeStepYields step, YieldPoint point) => point.YieldPct switch

@@ -108,7 +108,7 @@ public static class MarkdownDigestRenderer
             {
                 var today = step.History.Where(p => p.OnDigestDay).Select(p => $"{E(p.BatchId)} {DigestText.Pct(p.YieldPct)}{HtmlDigestRenderer.Within(step, p)}");
                 var history = HistorySummary(step);
-                Row(md, E(step.Recipe), $"{E(step.Step)} {E(step.StepName)}", HtmlDigestRenderer.YieldLimits(step),
+                Row(md, E(step.Recipe), $"{E(step.Step)} {E(step.StepName)}", HtmlDigestRenderer.YieldLimits(step, unit: false),
                     string.Join("; ", today) is { Length: > 0 } t ? t : "none", history);
             }
 

@@ -16,7 +16,7 @@ public static class BatchText
 
     /// <param name="source">How the version was chosen; null when unknown (stored before it was recorded).</param>
     public static string Header(string batch, string recipe, int version, RecipeVersionSource? source, DateOnly day, string? revision) =>
-        string.Create(Inv, $"batch {batch}: recipe {recipe} v{version} (version source: {source?.ToText() ?? "unknown"}){revision}, production day {day:yyyy-MM-dd}");
+        string.Create(Inv, $"batch {batch}: recipe {recipe} v{version}{revision}, production day {day:yyyy-MM-dd}; recipe version source: {source?.ToText() ?? "unknown"}");
 
     /// <param name="steps">Each step with its flags and their stored ids (null when not stored).</param>
     public static void Write(TextWriter o, string header, IEnumerable<string> notes, IEnumerable<(StepOutcome Step, IReadOnlyList<(Flag Flag, long? Id)> Flags)> steps)

@@ -262,6 +262,7 @@ internal sealed class ExportScanner(
         // step
         var stepText = Field(ExportColumns.Step);
         RecipeStep? step = null;
+        var checkStepLater = false;
         if (stepText.Length == 0)
         {
             Error(ExportColumns.Step, "", "step is required on every row");
@@ -281,6 +282,10 @@ internal sealed class ExportScanner(
             if (!versions.Any(r => r.FindStep(stepText) is not null))
             {
                 Error(ExportColumns.Step, stepText, Invariant($"no version of recipe {recipeCode} has a step '{stepText}' (steps: {string.Join(", ", versions.SelectMany(r => r.Steps).Select(s => s.Code).Distinct(StringComparer.Ordinal))})"));
+            }
+            else
+            {
+                checkStepLater = true;
             }
         }
 
@@ -455,7 +460,7 @@ internal sealed class ExportScanner(
                     Invariant($"batch {batchId} is recorded with recipe {batch.RecipeCode} on line {batch.RecipeCodeLine}; this row says {recipeCode}, and a batch has one recipe"));
             }
 
-            if (recipe is null && stepText.Length > 0)
+            if (checkStepLater)
             {
                 batch.UnversionedSteps.Add((line, stepText));
             }
