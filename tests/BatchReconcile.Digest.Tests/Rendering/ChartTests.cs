@@ -63,4 +63,23 @@ public class ChartTests
         Assert.Single(Html.SvgFragments(html));
         Assert.Contains("No closure", html, StringComparison.Ordinal);
     }
+
+    [Fact]
+    public void Limits_not_stored_with_a_step_are_shown_as_unknown_never_as_zero()
+    {
+        var data = SeededDigest.Create();
+        var outcome = data.FlaggedSteps[0].Outcome with { Limits = BatchReconcile.Reconciliation.Outcomes.StepLimits.Unknown };
+        var yields = new RecipeStepYields("PX-204", "S2", "Boc removal", null, null, data.Yields[0].History);
+        var one = new DigestData(data.SiteName, data.Day, data.GeneratedAt, 1, 1, 0, [], [], [new FlaggedStep("B-7", 1, "PX-204", outcome)], [yields]);
+
+        var html = HtmlDigestRenderer.Render(one);
+        var md = MarkdownDigestRenderer.Render(one);
+
+        Assert.Contains("<dt>Tolerance</dt><dd>unknown (not stored with this step)</dd>", html, StringComparison.Ordinal);
+        Assert.Contains("± unknown (k = unknown)", html, StringComparison.Ordinal);
+        Assert.Contains("Limits unknown, as stored", html, StringComparison.Ordinal);
+        Assert.DoesNotContain("± 0.0 %", html, StringComparison.Ordinal);
+        Assert.Contains("tolerance unknown.", md, StringComparison.Ordinal);
+        Assert.DoesNotContain("± 0.0 %", md, StringComparison.Ordinal);
+    }
 }
