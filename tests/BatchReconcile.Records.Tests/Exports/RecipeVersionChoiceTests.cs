@@ -94,7 +94,7 @@ public class RecipeVersionChoiceTests
 
         var error = Assert.Single(result.Errors);
         Assert.Equal((2, "step"), (error.Line, error.Column));
-        Assert.Contains("no version of recipe EST-7 has a step 'S9'", error.Reason, StringComparison.Ordinal);
+        Assert.Contains("recipe EST-7 has no step 'S9' in any version", error.Reason, StringComparison.Ordinal);
     }
 
     [Fact]

@@ -281,7 +281,7 @@ internal sealed class ExportScanner(
             var versions = catalog.Recipes.Where(r => string.Equals(r.Code, recipeCode, StringComparison.Ordinal)).ToList();
             if (!versions.Any(r => r.FindStep(stepText) is not null))
             {
-                Error(ExportColumns.Step, stepText, Invariant($"no version of recipe {recipeCode} has a step '{stepText}' (steps: {string.Join(", ", versions.SelectMany(r => r.Steps).Select(s => s.Code).Distinct(StringComparer.Ordinal))})"));
+                Error(ExportColumns.Step, stepText, Invariant($"recipe {recipeCode} has no step '{stepText}' in any version (steps: {string.Join(", ", versions.SelectMany(r => r.Steps).Select(s => s.Code).Distinct(StringComparer.Ordinal))})"));
             }
             else
             {
