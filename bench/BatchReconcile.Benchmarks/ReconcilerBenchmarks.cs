@@ -52,7 +52,7 @@ public class ReconcilerBenchmarks
 
     private void Add(string label, string path)
     {
-        var read = ExportReader.Read(path, Path.GetFileName(path), _catalog);
+        var read = ExportReader.Read(path, Path.GetFileName(path), _catalog, TimeZoneInfo.Utc);
         if (!read.IsValid)
         {
             throw new InvalidOperationException($"{path} does not read: {read.Errors[0].Reason}");

@@ -1,3 +1,4 @@
+using System.Globalization;
 using BatchReconcile.Chemistry.Metrics;
 using BatchReconcile.Reconciliation.Flags;
 using BatchReconcile.Reconciliation.Outcomes;
@@ -44,14 +45,50 @@ public static class BatchReconciler
         var materials = new MaterialLookup(catalog);
         var computed = recipe.Steps.Select(step => Compute(batch, step, materials, settings)).ToArray();
         var links = StepLinks.Find(computed, materials);
+        var versionFlags = VersionFlags(batch, recipe, catalog, severities);
         var steps = computed
-            .Select(c => StepOutcomeMapper.Map(c.Step, c.HasRows, c.Result, Flags(batch, c, links, recipe, materials, settings, severities)))
+            .Select((c, i) => StepOutcomeMapper.Map(
+                c.Step, c.HasRows, c.Result,
+                [.. i == 0 ? versionFlags : [], .. Flags(batch, c, links, recipe, materials, settings, severities)],
+                c.Step.ProductInWasteMaxPct ?? settings.ProductInWasteMaxPct))
             .ToArray();
         return new BatchOutcome(batch, steps, LastOutputAt(batch))
         {
             Links = links,
             Route = StepLinks.Yield(computed, materials),
         };
+    }
+
+    /// <summary>
+    /// recipe-version-unstated when neither the export nor an effective date chose the version. Flags are
+    /// stored per step, and this one concerns the whole batch, so it goes with the recipe's first step.
+    /// </summary>
+    private static IReadOnlyList<Flag> VersionFlags(BatchRecord batch, Recipe recipe, ProcessCatalog catalog, SeverityTable severities)
+    {
+        if (batch.RecipeVersionSource != RecipeVersionSource.Newest)
+        {
+            return [];
+        }
+
+        var first = recipe.Steps[0];
+        var dated = catalog.Recipes
+            .Where(r => string.Equals(r.Code, recipe.Code, StringComparison.OrdinalIgnoreCase) && r.EffectiveFrom is not null)
+            .Select(r => r.EffectiveFrom!.Value)
+            .ToList();
+        var why = batch.FirstRecordedDate is not { } date ? "none of its rows has a recorded_at"
+            : dated.Count == 0 ? $"no version of recipe {recipe.Code} has an effectiveFrom date"
+            : string.Create(CultureInfo.InvariantCulture, $"its first recorded time ({date:yyyy-MM-dd}, local date) is before the earliest effectiveFrom of recipe {recipe.Code} ({dated.Min():yyyy-MM-dd})");
+        return
+        [
+            new Flag(
+                FlagCode.RecipeVersionUnstated,
+                severities.For(FlagCode.RecipeVersionUnstated, first),
+                first.Code,
+                null,
+                null,
+                string.Empty,
+                string.Create(CultureInfo.InvariantCulture, $"The export of batch {batch.BatchId} gives no recipe_version and {why}, so the batch was reconciled against the newest version, {recipe.Code} v{recipe.Version}; confirm the version from the batch record and, if it was another, have the export sent again with recipe_version filled in (or give the versions effectiveFrom dates).")),
+        ];
     }
 
     /// <summary>The latest recorded time among output rows (by instant, not by line order); null when none has one.</summary>

@@ -130,7 +130,7 @@ public sealed partial class BatchStore
 
             var (plan, batchRef, currentRef) = PlanBatch(sql.FindBatch, batch.Outcome.Batch.BatchId, batch.ContentSha256);
             var result = plan.Disposition == BatchDisposition.Unchanged
-                ? new BatchCommitResult(plan.BatchId, plan.Disposition, plan.Revision, [])
+                ? new BatchCommitResult(plan.BatchId, plan.Disposition, plan.Revision, [], batch.Outcome.Batch.RecipeCode, batch.Outcome.Batch.RecipeVersion, batch.Outcome.Batch.RecipeVersionSource)
                 : StoreRevision(sql, file, ingestId, batch, plan, batchRef, currentRef, now);
             batches.Add((batch.Outcome.Batch.Rows.Count > 0 ? batch.Outcome.Batch.Rows[0].Line : 0, result));
         });
@@ -192,6 +192,7 @@ public sealed partial class BatchStore
         var revisionId = sql.InsertRevision
             .Set("$batch", batchKey).Set("$revision", plan.Revision).Set("$ingest", ingestId)
             .Set("$recipe", record.RecipeCode).Set("$recipeVersion", record.RecipeVersion)
+            .Set("$versionSource", record.RecipeVersionSource.ToText())
             .Set("$content", plan.ContentSha256).Set("$day", day)
             .Set("$lastOutput", DbText.TimeOrNull(batch.Outcome.LastOutputAt)).Set("$at", at)
             .Set("$routeYield", batch.Outcome.Route.YieldPct).Set("$routeTheoretical", batch.Outcome.Route.TheoreticalKg)
@@ -235,6 +236,11 @@ public sealed partial class BatchStore
                 .Set("$closure", step.ClosurePct).Set("$uncertainty", step.CombinedUncertaintyKg)
                 .Set("$equivalents", StoreJson.Equivalents(step.Equivalents)).Set("$ladder", StoreJson.Ladder(step.Ladder))
                 .Set("$recipe", record.RecipeCode).Set("$day", day)
+                .Set("$yieldMin", step.Limits.YieldMinPct).Set("$yieldMax", step.Limits.YieldMaxPct)
+                .Set("$tolerance", step.Limits.BalanceTolerancePct).Set("$k", step.Limits.CoverageFactor)
+                .Set("$expanded", step.Limits.ExpandedUncertaintyKg)
+                .Set("$ranges", step.Limits.EquivalentsRanges is { } ranges ? StoreJson.EquivalentsRanges(ranges) : null)
+                .Set("$inWasteMax", step.Limits.ProductInWasteMaxPct)
                 .Execute();
         }
 
@@ -250,7 +256,7 @@ public sealed partial class BatchStore
                 .ScalarInt64());
         }
 
-        return new BatchCommitResult(plan.BatchId, plan.Disposition, plan.Revision, flagIds);
+        return new BatchCommitResult(plan.BatchId, plan.Disposition, plan.Revision, flagIds, record.RecipeCode, record.RecipeVersion, record.RecipeVersionSource);
     }
 
     private static long LogIngest(CommitStatements sql, FileIngest file, IngestOutcome outcome, int errorCount, int batchCount, string? report, DateTimeOffset now) =>

@@ -1,6 +1,7 @@
 using BatchReconcile.Reconciliation.Flags;
 using BatchReconcile.Reconciliation.Outcomes;
 using BatchReconcile.Records.Definitions;
+using BatchReconcile.Records.Exports;
 using BatchReconcile.Storage.Queries;
 using BatchReconcile.Storage.Review;
 using BatchReconcile.Storage.Sql;
@@ -49,6 +50,7 @@ public sealed partial class BatchStore
                 {
                     Route = new RouteYield(reader.NullableDouble(13), reader.NullableDouble(14), reader.NullableString(15)),
                     Links = StoreJson.ParseLinks(reader.NullableString(16)),
+                    RecipeVersionSource = ReadVersionSource(reader, 17),
                 };
             }
 
@@ -170,10 +172,13 @@ public sealed partial class BatchStore
             var result = new List<FlaggedStep>();
             while (steps.Read())
             {
-                var revisionRef = steps.GetInt64(4);
-                var stepFlags = flags.GetValueOrDefault((revisionRef, steps.GetString(5))) ?? [];
+                var revisionRef = steps.GetInt64(5);
+                var stepFlags = flags.GetValueOrDefault((revisionRef, steps.GetString(6))) ?? [];
                 result.Add(new FlaggedStep(
-                    steps.GetString(0), steps.GetInt32(1), steps.GetString(2), steps.GetInt32(3), day, ReadStep(steps, 5, stepFlags)));
+                    steps.GetString(0), steps.GetInt32(1), steps.GetString(2), steps.GetInt32(3), day, ReadStep(steps, 6, stepFlags))
+                {
+                    RecipeVersionSource = ReadVersionSource(steps, 4),
+                });
             }
 
             return result;
@@ -272,7 +277,11 @@ public sealed partial class BatchStore
                     reader.NullableDouble(7),
                     reader.GetDouble(8),
                     reader.NullableDouble(9),
-                    reader.GetInt32(10)));
+                    reader.GetInt32(10))
+                {
+                    YieldMinPct = reader.NullableDouble(11),
+                    YieldMaxPct = reader.NullableDouble(12),
+                });
             }
 
             list.Reverse();
@@ -403,9 +412,23 @@ public sealed partial class BatchStore
             CombinedUncertaintyKg: r.GetDouble(o + 24),
             Equivalents: StoreJson.ParseEquivalents(r.GetString(o + 25)),
             Ladder: StoreJson.ParseLadder(r.GetString(o + 26)),
-            Flags: stepFlags.Select(f => f.Flag).ToList());
+            Flags: stepFlags.Select(f => f.Flag).ToList(),
+            Limits: new StepLimits(
+                r.NullableDouble(o + 27),
+                r.NullableDouble(o + 28),
+                r.NullableDouble(o + 29),
+                r.NullableDouble(o + 30),
+                r.NullableDouble(o + 31),
+                StoreJson.ParseEquivalentsRanges(r.NullableString(o + 32)),
+                r.NullableDouble(o + 33)));
         return new StoredStep(outcome, stepFlags);
     }
+
+    /// <summary>How the revision's recipe version was chosen; null when unknown (stored before it was recorded).</summary>
+    private static RecipeVersionSource? ReadVersionSource(SqliteDataReader reader, int ordinal) =>
+        reader.NullableString(ordinal) is not { } text ? null
+        : RecipeVersionSources.TryParse(text, out var source) ? source
+        : throw new InvalidDataException($"Unknown recipe version source '{text}' in the database.");
 
     private static FlagCode ParseCode(string text) =>
         FlagCodes.TryParse(text, out var code) ? code : throw new InvalidDataException($"Unknown flag code '{text}' in the database.");

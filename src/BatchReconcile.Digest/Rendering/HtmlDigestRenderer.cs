@@ -183,7 +183,7 @@ public static class HtmlDigestRenderer
                 .OrderBy(e => e.Severity).Select(e => DigestText.FlagName(e.Code, e.Subject)).Distinct().ToList();
 
             html.Append("<article class=\"step\" id=\"step-").Append(i + 1).Append("\">\n<header><h3>Batch ").Append(H(step.BatchId))
-                .Append(" rev ").Append(step.Revision).Append(", recipe ").Append(H(step.Recipe)).Append(", step ").Append(H(step.Step)).Append("</h3>\n");
+                .Append(" rev ").Append(step.Revision).Append(", recipe ").Append(H(step.RecipeText)).Append(", step ").Append(H(step.Step)).Append("</h3>\n");
             if (codes.Count > 0)
             {
                 html.Append("<p class=\"lead\">Flags: ").Append(H(string.Join(", ", codes))).Append("</p>\n");
@@ -195,7 +195,7 @@ public static class HtmlDigestRenderer
             Fact(html, "Vented (estimate)", $"{DigestText.Kg(o.VentedKg, dec)} kg, up to {DigestText.Kg(o.VentedMaxKg, dec)} kg");
             Fact(html, "Gap", DigestText.Kg(o.GapKg, dec) + " kg");
             Fact(html, "Closure", ClosureText(step));
-            Fact(html, "Tolerance", "± " + DigestText.Pct(step.TolerancePct) + " % of charged");
+            Fact(html, "Tolerance", step.TolerancePct is { } tol ? "± " + DigestText.Pct(tol) + " % of charged" : "unknown (not stored with this step)");
             if (o.HasRows && o.LimitingReactant is null)
             {
                 Fact(html, "Yield-based figures", "n/a: " + H(DigestText.NotComputable));
@@ -259,8 +259,7 @@ public static class HtmlDigestRenderer
         {
             var today = step.History.Where(p => p.OnDigestDay).ToList();
             html.Append("<figure class=\"yield\">\n<h3>").Append(H(step.Recipe)).Append(" ").Append(H(step.Step)).Append(": ").Append(H(step.StepName)).Append("</h3>\n")
-                .Append(YieldChart.Draw(step)).Append("\n<figcaption>Limits ").Append(DigestText.Pct(step.MinYieldPct)).Append(" to ")
-                .Append(DigestText.Pct(step.MaxYieldPct)).Append(" %. This day: ");
+                .Append(YieldChart.Draw(step)).Append("\n<figcaption>Limits ").Append(YieldLimits(step)).Append(", as stored with the latest batch shown. This day: ");
             html.Append(today.Count == 0
                 ? "no batch."
                 : H(string.Join("; ", today.Select(p => $"{p.BatchId} {DigestText.Pct(p.YieldPct)} %{Within(step, p)}"))) + ".");
@@ -303,15 +302,20 @@ public static class HtmlDigestRenderer
 
     /// <summary>The closure with its expanded uncertainty and coverage factor, or "n/a"; plain text with no markup characters.</summary>
     internal static string ClosureText(FlaggedStep step) => step.Outcome.ClosurePct is { } c
-        ? $"{DigestText.Pct(c)} % ± {DigestText.Pct(ClosureChart.ExpandedUncertaintyPct(step))} % (k = {DigestText.Number(step.CoverageFactor, 1)})"
+        ? $"{DigestText.Pct(c)} % ± {ClosureChart.Known(ClosureChart.ExpandedUncertaintyPct(step))} (k = {(step.CoverageFactor is { } k ? DigestText.Number(k, 1) : "unknown")})"
         : "n/a";
+
+    /// <summary>"88.0 to 98.0 %" (without the unit for a column headed in %), with "unknown" for a limit not stored.</summary>
+    internal static string YieldLimits(RecipeStepYields step, bool unit = true) => step.MinYieldPct is null && step.MaxYieldPct is null
+        ? "unknown"
+        : $"{(step.MinYieldPct is { } min ? DigestText.Pct(min) : "unknown")} to {(step.MaxYieldPct is { } max ? DigestText.Pct(max) : "unknown")}{(unit ? " %" : "")}";
 
     // Limits are inclusive and a value within 1e-9 (relative) of one counts as on it, as the flag rules say.
     internal static string Within(RecipeStepYields step, YieldPoint point) => point.YieldPct switch
     {
         null => string.Empty,
-        { } v when v < step.MinYieldPct - (1e-9 * Math.Max(1, Math.Abs(step.MinYieldPct))) => " (below)",
-        { } v when v > step.MaxYieldPct + (1e-9 * Math.Max(1, Math.Abs(step.MaxYieldPct))) => " (above)",
+        { } v when step.MinYieldPct is { } min && v < min - (1e-9 * Math.Max(1, Math.Abs(min))) => " (below)",
+        { } v when step.MaxYieldPct is { } max && v > max + (1e-9 * Math.Max(1, Math.Abs(max))) => " (above)",
         _ => string.Empty,
     };
 

@@ -77,7 +77,7 @@ public static class MarkdownDigestRenderer
         {
             var o = step.Outcome;
             var dec = DigestText.KgDecimals(o.MassInKg);
-            md.Append("### Batch ").Append(E(step.BatchId)).Append(" rev ").Append(step.Revision).Append(", recipe ").Append(E(step.Recipe))
+            md.Append("### Batch ").Append(E(step.BatchId)).Append(" rev ").Append(step.Revision).Append(", recipe ").Append(E(step.RecipeText))
                 .Append(", step ").Append(E(step.Step)).Append("\n\n");
             Row(md, "Loss ladder", "kg", "% of charged");
             md.Append("|---|---:|---:|\n");
@@ -92,7 +92,7 @@ public static class MarkdownDigestRenderer
             md.Append("Balance: out ").Append(DigestText.Kg(o.MassOutKg, dec)).Append(" kg, vented ").Append(DigestText.Kg(o.VentedKg, dec))
                 .Append(" kg (up to ").Append(DigestText.Kg(o.VentedMaxKg, dec)).Append(" kg), gap ").Append(DigestText.Kg(o.GapKg, dec)).Append(" kg; closure ");
             md.Append(HtmlDigestRenderer.ClosureText(step));
-            md.Append(", tolerance ± ").Append(DigestText.Pct(step.TolerancePct)).Append(" %.\n\n");
+            md.Append(", tolerance ").Append(step.TolerancePct is { } tol ? "± " + DigestText.Pct(tol) + " %" : "unknown").Append(".\n\n");
             if (o.HasRows && o.LimitingReactant is null)
             {
                 md.Append("Yield-based figures n/a: ").Append(E(DigestText.NotComputable)).Append(".\n\n");
@@ -125,7 +125,7 @@ public static class MarkdownDigestRenderer
             {
                 var today = step.History.Where(p => p.OnDigestDay).Select(p => $"{E(p.BatchId)} {DigestText.Pct(p.YieldPct)}{HtmlDigestRenderer.Within(step, p)}");
                 var history = HistorySummary(step);
-                Row(md, E(step.Recipe), $"{E(step.Step)} {E(step.StepName)}", $"{DigestText.Pct(step.MinYieldPct)} to {DigestText.Pct(step.MaxYieldPct)}",
+                Row(md, E(step.Recipe), $"{E(step.Step)} {E(step.StepName)}", HtmlDigestRenderer.YieldLimits(step, unit: false),
                     string.Join("; ", today) is { Length: > 0 } t ? t : "none", history);
             }
 

@@ -7,6 +7,7 @@ namespace BatchReconcile.Reconciliation.Outcomes;
 /// Figures that cannot be computed (no limiting reactant because a reactant was not charged,
 /// no product so no PMI) are null, never NaN or infinity.
 /// </remarks>
+/// <param name="Limits">Every limit and setting that decided the step's flags, as they were when it was reconciled.</param>
 public sealed record StepOutcome(
     string Step,
     bool HasRows,
@@ -35,4 +36,5 @@ public sealed record StepOutcome(
     double CombinedUncertaintyKg,
     IReadOnlyDictionary<string, double> Equivalents,
     IReadOnlyList<LadderRung> Ladder,
-    IReadOnlyList<Flag> Flags);
+    IReadOnlyList<Flag> Flags,
+    StepLimits Limits);

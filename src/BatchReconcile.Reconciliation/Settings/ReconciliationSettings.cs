@@ -30,6 +30,7 @@ public sealed class ReconciliationSettings
     {
         FlagCode.YieldOverTheory or FlagCode.BalanceSurplus or FlagCode.ReactantMissing => FlagSeverity.Critical,
         FlagCode.EquivalentsOutOfRange or FlagCode.ProductInWaste => FlagSeverity.Minor,
+        FlagCode.RecipeVersionUnstated => FlagSeverity.Major,
         _ => FlagSeverity.Major,
     };
 }

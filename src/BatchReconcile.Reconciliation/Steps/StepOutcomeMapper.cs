@@ -10,7 +10,8 @@ internal static class StepOutcomeMapper
 {
     private const double MolPerKmol = 1000;
 
-    public static StepOutcome Map(RecipeStep step, bool hasRows, StepResult r, IReadOnlyList<Flag> flags)
+    /// <param name="productInWasteMaxPct">The product-in-waste limit the flags were judged by (step value or site default).</param>
+    public static StepOutcome Map(RecipeStep step, bool hasRows, StepResult r, IReadOnlyList<Flag> flags, double productInWasteMaxPct)
     {
         var balance = r.Balance;
 
@@ -65,6 +66,14 @@ internal static class StepOutcomeMapper
             CombinedUncertaintyKg: balance.CombinedStandardUncertaintyKg,
             Equivalents: equivalents,
             Ladder: ladder,
-            Flags: flags);
+            Flags: flags,
+            Limits: new StepLimits(
+                step.YieldPct.Min,
+                step.YieldPct.Max,
+                balance.TolerancePct,
+                balance.CoverageFactor,
+                balance.ExpandedUncertaintyKg,
+                step.Equivalents,
+                productInWasteMaxPct));
     }
 }

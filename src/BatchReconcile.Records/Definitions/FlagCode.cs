@@ -13,4 +13,7 @@ public enum FlagCode
     StepMissing,
     ProductInWaste,
     IntermediateOverdrawn,
+
+    /// <summary>The export gave no recipe version and no effective date decided one; the newest was used.</summary>
+    RecipeVersionUnstated,
 }

@@ -17,6 +17,7 @@ public static class FlagCodes
         (FlagCode.StepMissing, "step-missing"),
         (FlagCode.ProductInWaste, "product-in-waste"),
         (FlagCode.IntermediateOverdrawn, "intermediate-overdrawn"),
+        (FlagCode.RecipeVersionUnstated, "recipe-version-unstated"),
     ];
 
     public static IEnumerable<FlagCode> All => Codes.Select(c => c.Code);

@@ -20,14 +20,29 @@ public sealed class ProcessCatalog
 
     public Material? FindMaterial(string code) => _materials.GetValueOrDefault(code.Trim());
 
-    /// <summary>The recipe of that code and version; without a version, the newest.</summary>
-    public Recipe? FindRecipe(string code, int? version = null)
+    /// <summary>Whether any version of the recipe is defined.</summary>
+    public bool HasRecipe(string code) => _recipes.ContainsKey(code.Trim());
+
+    /// <summary>The recipe of that code and version; null when not defined.</summary>
+    public Recipe? FindRecipe(string code, int version) =>
+        _recipes.TryGetValue(code.Trim(), out var versions) ? versions.FirstOrDefault(r => r.Version == version) : null;
+
+    /// <summary>
+    /// The version of a recipe in effect on a local calendar date: the one with the latest
+    /// <see cref="Recipe.EffectiveFrom"/> on or before <paramref name="date"/>. Null when the recipe is not
+    /// defined, when <paramref name="date"/> is null, or when no version's date is on or before it.
+    /// </summary>
+    public Recipe? RecipeInEffect(string code, DateOnly? date)
     {
-        if (!_recipes.TryGetValue(code.Trim(), out var versions))
+        if (date is not { } d || !_recipes.TryGetValue(code.Trim(), out var versions))
         {
             return null;
         }
 
-        return version is null ? versions[^1] : versions.FirstOrDefault(r => r.Version == version);
+        return versions.Where(r => r.EffectiveFrom <= d).MaxBy(r => r.EffectiveFrom);
     }
+
+    /// <summary>The newest (highest) version of a recipe; null when not defined. Only a stated fallback (<see cref="Exports.RecipeVersionSource.Newest"/>) uses it.</summary>
+    public Recipe? NewestRecipe(string code) =>
+        _recipes.TryGetValue(code.Trim(), out var versions) ? versions[^1] : null;
 }

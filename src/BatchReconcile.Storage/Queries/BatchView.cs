@@ -1,4 +1,5 @@
 using BatchReconcile.Reconciliation.Outcomes;
+using BatchReconcile.Records.Exports;
 
 namespace BatchReconcile.Storage.Queries;
 
@@ -28,6 +29,9 @@ public sealed record BatchView(
 
     /// <summary>Later steps charging an earlier step's product; null for revisions stored before links were kept.</summary>
     public IReadOnlyList<IntermediateLink>? Links { get; init; }
+
+    /// <summary>How <see cref="RecipeVersion"/> was chosen; null when unknown (a revision stored before this was recorded).</summary>
+    public RecipeVersionSource? RecipeVersionSource { get; init; }
 
     public bool IsCurrent => SupersededAt is null;
 

@@ -12,4 +12,10 @@ public sealed record StepHistoryPoint(
     double? Pmi,
     double GapKg,
     double? ClosurePct,
-    int FlagCount);
+    int FlagCount)
+{
+    /// <summary>The yield limits this batch's step was judged by; null when unknown (stored before they were kept).</summary>
+    public double? YieldMinPct { get; init; }
+
+    public double? YieldMaxPct { get; init; }
+}

@@ -14,10 +14,7 @@ public static class Migrations
         new(3, "append-only audit trail", V3AuditTrail),
         new(4, "review trail: flag review state, hash-chained audit entries, digest records, day indexes", V4ReviewTrail, ReviewTrailBackfill.Run, V4Finish),
         new(5, "raw rows: one record per batch revision (header once, lines compressed) instead of one per row", V5RawRowsPerRevision, RawRowsRepack.Run, V5Finish),
-
-        // Issue 9 is done on parallel branches that each took a number: 6 and 8 belong to the other branches and this
-        // placeholder is replaced by theirs when they are merged (the migrator wants versions without gaps).
-        new(6, "reserved for a parallel change of issue 9 (no change on this branch)", "SELECT 1;"),
+        new(6, "recipe version source per batch revision; the limits and settings that decided each step's flags, per step result", V6DecidingLimits, RecipeVersionSourceBackfill.Run),
         new(7, "route yield and intermediate links per batch revision", V7RouteYield),
     ];
 
@@ -252,6 +249,33 @@ public static class Migrations
 
     private const string V5Finish = """
         DROP TABLE raw_row;
+        """;
+
+    // How each revision's recipe version was chosen, and every limit a step was judged by: readers
+    // show these, never today's definitions. NULL is unknown (stored before this version), never 0.
+    // Rows stored before are filled only from what the store itself holds: the limit a yield or
+    // product-in-waste flag carries is the limit it broke; the source from the stored raw rows
+    // (RecipeVersionSourceBackfill). The rest stays unknown: the definitions a row was reconciled
+    // with were not recorded, and today's may differ.
+    private const string V6DecidingLimits = """
+        ALTER TABLE batch_revision ADD COLUMN recipe_version_source TEXT
+            CHECK (recipe_version_source IN ('export', 'effective-date', 'newest'));
+
+        ALTER TABLE step_result ADD COLUMN yield_min_pct REAL;
+        ALTER TABLE step_result ADD COLUMN yield_max_pct REAL;
+        ALTER TABLE step_result ADD COLUMN balance_tolerance_pct REAL;
+        ALTER TABLE step_result ADD COLUMN coverage_factor REAL;
+        ALTER TABLE step_result ADD COLUMN expanded_uncertainty_kg REAL;
+        ALTER TABLE step_result ADD COLUMN equivalents_ranges TEXT;
+        ALTER TABLE step_result ADD COLUMN product_in_waste_max_pct REAL;
+
+        UPDATE step_result SET
+            yield_min_pct = (SELECT f.limit_value FROM flag f
+                             WHERE f.revision_ref = step_result.revision_ref AND f.step = step_result.step AND f.code = 'yield-low'),
+            yield_max_pct = (SELECT f.limit_value FROM flag f
+                             WHERE f.revision_ref = step_result.revision_ref AND f.step = step_result.step AND f.code = 'yield-high'),
+            product_in_waste_max_pct = (SELECT f.limit_value FROM flag f
+                             WHERE f.revision_ref = step_result.revision_ref AND f.step = step_result.step AND f.code = 'product-in-waste');
         """;
 
     // The route yield of a batch (docs/computation.md, "Route yield") and its step-to-step links. Revisions stored

@@ -47,12 +47,12 @@ internal sealed class CommitStatements : IDisposable
             ("$batch", T), ("$at", T));
         InsertRevision = Make(
             """
-            INSERT INTO batch_revision (batch_ref, revision, ingest_ref, recipe, recipe_version, content_sha256, production_day, last_output_at, stored_at,
+            INSERT INTO batch_revision (batch_ref, revision, ingest_ref, recipe, recipe_version, recipe_version_source, content_sha256, production_day, last_output_at, stored_at,
                 route_yield_pct, route_theoretical_kg, route_note, step_links)
-            VALUES ($batch, $revision, $ingest, $recipe, $recipeVersion, $content, $day, $lastOutput, $at,
+            VALUES ($batch, $revision, $ingest, $recipe, $recipeVersion, $versionSource, $content, $day, $lastOutput, $at,
                 $routeYield, $routeTheoretical, $routeNote, $links) RETURNING id
             """,
-            ("$batch", I), ("$revision", I), ("$ingest", I), ("$recipe", T), ("$recipeVersion", I), ("$content", T), ("$day", T), ("$lastOutput", T), ("$at", T),
+            ("$batch", I), ("$revision", I), ("$ingest", I), ("$recipe", T), ("$recipeVersion", I), ("$versionSource", T), ("$content", T), ("$day", T), ("$lastOutput", T), ("$at", T),
             ("$routeYield", R), ("$routeTheoretical", R), ("$routeNote", T), ("$links", T));
         Supersede = Make(
             "UPDATE batch_revision SET superseded_at = $at WHERE id = $old AND superseded_at IS NULL",
@@ -72,19 +72,25 @@ internal sealed class CommitStatements : IDisposable
                 yield_pct, atom_economy_pct, stoichiometric_factor, rme_pct, mrp, overall_rme_pct, pmi,
                 complete_e_factor, simple_e_factor, mass_in_kg, reactant_mass_kg, stoichiometric_mass_kg,
                 recovered_kg, mass_out_kg, vented_kg, vented_max_kg, gap_kg, closure_pct, combined_uncertainty_kg,
-                equivalents, ladder, recipe, production_day, is_current)
+                equivalents, ladder, recipe, production_day, is_current,
+                yield_min_pct, yield_max_pct, balance_tolerance_pct, coverage_factor, expanded_uncertainty_kg,
+                equivalents_ranges, product_in_waste_max_pct)
             VALUES (
                 $revision, $step, $order, $hasRows, $limiting, $extent, $theoretical, $actual,
                 $yield, $ae, $sf, $rme, $mrp, $overallRme, $pmi,
                 $cef, $sef, $massIn, $reactantMass, $stoichMass,
                 $recovered, $massOut, $vented, $ventedMax, $gap, $closure, $uncertainty,
-                $equivalents, $ladder, $recipe, $day, 1)
+                $equivalents, $ladder, $recipe, $day, 1,
+                $yieldMin, $yieldMax, $tolerance, $k, $expanded,
+                $ranges, $inWasteMax)
             """,
             ("$revision", I), ("$step", T), ("$order", I), ("$hasRows", I), ("$limiting", T), ("$extent", R), ("$theoretical", R), ("$actual", R),
             ("$yield", R), ("$ae", R), ("$sf", R), ("$rme", R), ("$mrp", R), ("$overallRme", R), ("$pmi", R),
             ("$cef", R), ("$sef", R), ("$massIn", R), ("$reactantMass", R), ("$stoichMass", R),
             ("$recovered", R), ("$massOut", R), ("$vented", R), ("$ventedMax", R), ("$gap", R), ("$closure", R), ("$uncertainty", R),
-            ("$equivalents", T), ("$ladder", T), ("$recipe", T), ("$day", T));
+            ("$equivalents", T), ("$ladder", T), ("$recipe", T), ("$day", T),
+            ("$yieldMin", R), ("$yieldMax", R), ("$tolerance", R), ("$k", R), ("$expanded", R),
+            ("$ranges", T), ("$inWasteMax", R));
         InsertFlag = Make(
             """
             INSERT INTO flag (revision_ref, step, code, severity, measured, limit_value, unit, message, subject, state, created_at, production_day, is_current)

@@ -1,5 +1,6 @@
 using System.Text.Json;
 using BatchReconcile.Reconciliation.Outcomes;
+using BatchReconcile.Records.Definitions;
 
 namespace BatchReconcile.Storage.Sql;
 
@@ -17,6 +18,14 @@ internal static class StoreJson
 
     public static IReadOnlyDictionary<string, double> ParseEquivalents(string json) =>
         JsonSerializer.Deserialize<Dictionary<string, double>>(json, Options) ?? [];
+
+    /// <summary>Allowed equivalents by reagent, {"CODE":{"min":1.05,"max":1.2}}, in code order.</summary>
+    public static string EquivalentsRanges(IReadOnlyDictionary<string, ValueRange> ranges) =>
+        JsonSerializer.Serialize(ranges.OrderBy(e => e.Key, StringComparer.Ordinal).ToDictionary(e => e.Key, e => e.Value), Options);
+
+    /// <summary>Null (unknown) stays null; "{}" is a step with no ranges.</summary>
+    public static IReadOnlyDictionary<string, ValueRange>? ParseEquivalentsRanges(string? json) =>
+        json is null ? null : JsonSerializer.Deserialize<Dictionary<string, ValueRange>>(json, Options) ?? [];
 
     public static string Ladder(IReadOnlyList<LadderRung> ladder) => JsonSerializer.Serialize(ladder, Options);
 

@@ -7,7 +7,7 @@ internal static class StoreQueries
         SELECT r.id, r.revision, r.recipe, r.recipe_version, r.production_day, r.last_output_at, r.stored_at,
                r.superseded_at, n.revision, r.content_sha256, i.file_name, i.sha256,
                (SELECT count(*) FROM batch_revision x WHERE x.batch_ref = b.id),
-               r.route_yield_pct, r.route_theoretical_kg, r.route_note, r.step_links
+               r.route_yield_pct, r.route_theoretical_kg, r.route_note, r.step_links, r.recipe_version_source
         FROM batch b
         JOIN batch_revision r ON r.batch_ref = b.id
         JOIN ingest_log i ON i.id = r.ingest_ref
@@ -20,7 +20,9 @@ internal static class StoreQueries
         s.step, s.has_rows, s.limiting_reactant, s.extent_max_mol, s.theoretical_kg, s.actual_kg, s.yield_pct, s.atom_economy_pct,
         s.stoichiometric_factor, s.rme_pct, s.mrp, s.overall_rme_pct, s.pmi, s.complete_e_factor, s.simple_e_factor,
         s.mass_in_kg, s.reactant_mass_kg, s.stoichiometric_mass_kg, s.recovered_kg, s.mass_out_kg, s.vented_kg,
-        s.vented_max_kg, s.gap_kg, s.closure_pct, s.combined_uncertainty_kg, s.equivalents, s.ladder
+        s.vented_max_kg, s.gap_kg, s.closure_pct, s.combined_uncertainty_kg, s.equivalents, s.ladder,
+        s.yield_min_pct, s.yield_max_pct, s.balance_tolerance_pct, s.coverage_factor, s.expanded_uncertainty_kg,
+        s.equivalents_ranges, s.product_in_waste_max_pct
         """;
 
     /// <summary>The columns of a flag, in the order <c>BatchStore.ReadFlag</c> reads them (prefix <c>f.</c>).</summary>
@@ -50,7 +52,7 @@ internal static class StoreQueries
 
     /// <summary>Current steps of a day that carry a flag; reads the day's steps from <c>ix_step_result_day</c>.</summary>
     public const string FlaggedStepsOfDay = $"""
-        SELECT b.batch_id, r.revision, r.recipe, r.recipe_version, s.revision_ref, {StepColumns}
+        SELECT b.batch_id, r.revision, r.recipe, r.recipe_version, r.recipe_version_source, s.revision_ref, {StepColumns}
         FROM step_result s
         JOIN batch_revision r ON r.id = s.revision_ref
         JOIN batch b ON b.id = r.batch_ref
@@ -83,7 +85,8 @@ internal static class StoreQueries
     private const string StepHistorySelect = """
         SELECT b.batch_id, r.revision, s.production_day, r.last_output_at, s.yield_pct, s.actual_kg, s.theoretical_kg,
                s.pmi, s.gap_kg, s.closure_pct,
-               (SELECT count(*) FROM flag f WHERE f.revision_ref = s.revision_ref AND f.step = s.step)
+               (SELECT count(*) FROM flag f WHERE f.revision_ref = s.revision_ref AND f.step = s.step),
+               s.yield_min_pct, s.yield_max_pct
         FROM step_result s
         JOIN batch_revision r ON r.id = s.revision_ref
         JOIN batch b ON b.id = r.batch_ref

@@ -31,7 +31,20 @@ public static class BatchJson
         double CombinedUncertaintyKg,
         IReadOnlyDictionary<string, double> Equivalents,
         IReadOnlyList<LadderJson> Ladder,
-        IReadOnlyList<FlagJson> Flags);
+        IReadOnlyList<FlagJson> Flags,
+        LimitsJson Limits);
+
+    /// <summary>The limits and settings that decided the step's flags, as stored with it; null is unknown (never 0).</summary>
+    public sealed record LimitsJson(
+        double? YieldMinPct,
+        double? YieldMaxPct,
+        double? BalanceTolerancePct,
+        double? CoverageFactor,
+        double? ExpandedUncertaintyKg,
+        IReadOnlyDictionary<string, RangeJson>? EquivalentsRanges,
+        double? ProductInWasteMaxPct);
+
+    public sealed record RangeJson(double Min, double Max);
 
     /// <summary>One problem of an export file, as <c>ingest --json</c> and <c>check --json</c> print it.</summary>
     public sealed record ErrorJson(int Line, string Column, string Value, string Message)
@@ -46,6 +59,7 @@ public static class BatchJson
         int Revision,
         string Recipe,
         int RecipeVersion,
+        string? RecipeVersionSource,
         string ProductionDay,
         bool Current,
         int Revisions,
@@ -73,6 +87,7 @@ public static class BatchJson
             view.Revision,
             view.Recipe,
             view.RecipeVersion,
+            view.RecipeVersionSource?.ToText(),
             view.ProductionDay.ToString("yyyy-MM-dd", System.Globalization.CultureInfo.InvariantCulture),
             view.IsCurrent,
             view.RevisionCount,
@@ -108,7 +123,15 @@ public static class BatchJson
         Round(s.CombinedUncertaintyKg, 4),
         s.Equivalents.ToDictionary(e => e.Key, e => Round(e.Value, 4)),
         s.Ladder.Select(r => new LadderJson(r.Key, r.Label, Round(r.Kg), Round(r.PctOfCharged))).ToList(),
-        flags);
+        flags,
+        new LimitsJson(
+            s.Limits.YieldMinPct,
+            s.Limits.YieldMaxPct,
+            s.Limits.BalanceTolerancePct,
+            s.Limits.CoverageFactor,
+            Round(s.Limits.ExpandedUncertaintyKg, 4),
+            s.Limits.EquivalentsRanges?.OrderBy(e => e.Key, StringComparer.Ordinal).ToDictionary(e => e.Key, e => new RangeJson(e.Value.Min, e.Value.Max)),
+            s.Limits.ProductInWasteMaxPct));
 
     /// <summary>Masses to 0.001 kg and percentages to 0.001 %: enough for a balance read to 1 g, without binary noise.</summary>
     private static double Round(double value, int digits = 3) => Rounding.To(value, digits);

@@ -2,6 +2,7 @@ using System.Globalization;
 using BatchReconcile.Reconciliation.Outcomes;
 using BatchReconcile.Reconciliation.Flags;
 using BatchReconcile.Records.Definitions;
+using BatchReconcile.Records.Exports;
 
 namespace BatchReconcile.Cli;
 
@@ -12,7 +13,7 @@ public static class BatchText
 
     public static void Write(TextWriter o, BatchOutcome batch, DateOnly day)
     {
-        Write(o, Header(batch.Batch.BatchId, batch.Batch.RecipeCode, batch.Batch.RecipeVersion, day, null), batch.Batch.Warnings, batch.Steps.Select(s => (s, (IReadOnlyList<(Flag, long?)>)s.Flags.Select(f => (f, (long?)null)).ToList())));
+        Write(o, Header(batch.Batch.BatchId, batch.Batch.RecipeCode, batch.Batch.RecipeVersion, batch.Batch.RecipeVersionSource, day, null), batch.Batch.Warnings, batch.Steps.Select(s => (s, (IReadOnlyList<(Flag, long?)>)s.Flags.Select(f => (f, (long?)null)).ToList())));
         WriteRoute(o, batch.Route, batch.Links);
     }
 
@@ -44,8 +45,9 @@ public static class BatchText
             : $"  route yield: not computable ({route.Reason})");
     }
 
-    public static string Header(string batch, string recipe, int version, DateOnly day, string? revision) =>
-        string.Create(Inv, $"batch {batch}: recipe {recipe} v{version}{revision}, production day {day:yyyy-MM-dd}");
+    /// <param name="source">How the version was chosen; null when unknown (stored before it was recorded).</param>
+    public static string Header(string batch, string recipe, int version, RecipeVersionSource? source, DateOnly day, string? revision) =>
+        string.Create(Inv, $"batch {batch}: recipe {recipe} v{version}{revision}, production day {day:yyyy-MM-dd}; recipe version source: {source?.ToText() ?? "unknown"}");
 
     /// <param name="steps">Each step with its flags and their stored ids (null when not stored).</param>
     public static void Write(TextWriter o, string header, IEnumerable<string> notes, IEnumerable<(StepOutcome Step, IReadOnlyList<(Flag Flag, long? Id)> Flags)> steps)
@@ -66,7 +68,8 @@ public static class BatchText
             }
 
             o.WriteLine(string.Create(Inv, $"    atom economy {Pct(s.AtomEconomyPct)}, SF {Num(s.StoichiometricFactor)}, RME {Pct(s.RmePct)}, PMI {Num(s.Pmi)}, cEF {Num(s.CompleteEFactor)}, sEF {Num(s.SimpleEFactor)}"));
-            o.WriteLine(string.Create(Inv, $"    mass in {Kg(s.MassInKg)}, out {Kg(s.MassOutKg)}, vented {Kg(s.VentedKg)}, gap {Kg(s.GapKg)}, closure {Pct(s.ClosurePct)} (2u ≈ {Kg(2 * s.CombinedUncertaintyKg)})"));
+            o.WriteLine(string.Create(Inv, $"    mass in {Kg(s.MassInKg)}, out {Kg(s.MassOutKg)}, vented {Kg(s.VentedKg)}, gap {Kg(s.GapKg)}, closure {Pct(s.ClosurePct)} (U {Known(Kg(s.Limits.ExpandedUncertaintyKg))}, k {Known(Num(s.Limits.CoverageFactor))})"));
+            o.WriteLine(Limits(s.Limits));
             foreach (var rung in s.Ladder)
             {
                 o.WriteLine(string.Create(Inv, $"      {rung.Label,-48} {rung.Kg,12:F3} kg {rung.PctOfCharged,8:F2} %"));
@@ -79,6 +82,20 @@ public static class BatchText
             }
         }
     }
+
+    /// <summary>The limits the step was judged by, as stored: "unknown" where they were not kept, never 0.</summary>
+    private static string Limits(StepLimits l)
+    {
+        var yield = l.YieldMinPct is null && l.YieldMaxPct is null ? "unknown" : $"{Limit(l.YieldMinPct)} to {Limit(l.YieldMaxPct)} %";
+        var equivalents = l.EquivalentsRanges is not { } ranges ? "unknown"
+            : ranges.Count == 0 ? "none"
+            : string.Join(", ", ranges.OrderBy(e => e.Key, StringComparer.Ordinal).Select(e => string.Create(Inv, $"{e.Key} {e.Value.Min:0.0##} to {e.Value.Max:0.0##}")));
+        return $"    limits: yield {yield}, balance tolerance {Limit(l.BalanceTolerancePct)}{(l.BalanceTolerancePct is null ? "" : " %")}, product in waste {Limit(l.ProductInWasteMaxPct)}{(l.ProductInWasteMaxPct is null ? "" : " %")}, equivalents {equivalents}";
+    }
+
+    private static string Limit(double? v) => v is { } x ? x.ToString("0.###", Inv) : "unknown";
+
+    private static string Known(string text) => text == "-" ? "unknown" : text;
 
     private static string Kg(double? v) => v is { } x ? string.Create(Inv, $"{x:F3} kg") : "-";
 

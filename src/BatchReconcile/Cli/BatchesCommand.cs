@@ -32,7 +32,7 @@ public static class BatchesCommand
                 : string.Create(CultureInfo.InvariantCulture, $", revision {view.Revision} of {view.RevisionCount} (superseded by {view.SupersededByRevision})");
             BatchText.Write(
                 stdout,
-                BatchText.Header(view.BatchId, view.Recipe, view.RecipeVersion, view.ProductionDay, state),
+                BatchText.Header(view.BatchId, view.Recipe, view.RecipeVersion, view.RecipeVersionSource, view.ProductionDay, state),
                 [$"from {view.SourceFile}"],
                 view.Steps.Select(s => (s.Outcome, (IReadOnlyList<(Reconciliation.Flags.Flag, long?)>)s.Flags.Select(f => (f.Flag, (long?)f.Id)).ToList())));
             BatchText.WriteRoute(stdout, view.Route, view.Links);

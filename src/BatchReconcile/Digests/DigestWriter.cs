@@ -6,7 +6,6 @@ using BatchReconcile.Hosting;
 using BatchReconcile.Intake.Archive;
 using BatchReconcile.Pipeline;
 using BatchReconcile.Reconciliation.ProductionDays;
-using BatchReconcile.Reconciliation.Settings;
 using BatchReconcile.Storage;
 using BatchReconcile.Storage.Queries;
 using Microsoft.Extensions.Logging;
@@ -30,7 +29,6 @@ public sealed class DigestWriter(
     ProductionDayCalendar calendar,
     DataFolders folders,
     IOptions<SiteOptions> site,
-    ReconciliationSettings reconciliation,
     TimeProvider time,
     ILogger<DigestWriter> logger)
 {
@@ -114,25 +112,27 @@ public sealed class DigestWriter(
         };
     }
 
-    private DigestFlaggedStep ToDigest(Storage.Queries.FlaggedStep f)
-    {
-        var step = catalog.Current.FindRecipe(f.Recipe, f.RecipeVersion)?.FindStep(f.Step.Outcome.Step);
-        return new DigestFlaggedStep(f.BatchId, f.Revision, f.Recipe, f.Step.Outcome, reconciliation.CoverageFactor, step?.BalanceTolerancePct ?? 0);
-    }
+    /// <summary>The step as stored: its figures and the limits it was judged by (never today's definitions).</summary>
+    private static DigestFlaggedStep ToDigest(Storage.Queries.FlaggedStep f) =>
+        new(f.BatchId, f.Revision, f.Recipe, f.Step.Outcome) { RecipeVersion = f.RecipeVersion, RecipeVersionSource = f.RecipeVersionSource };
 
-    /// <summary>A recipe step's yields of the last batches up to the day, against the newest master-record limits.</summary>
+    /// <summary>A recipe step's yields of the last batches up to the day, against the limits stored with the latest of them.</summary>
     private RecipeStepYields? Yields(RecipeStepKey key, DateOnly day)
     {
-        var step = catalog.Current.FindRecipe(key.Recipe)?.FindStep(key.Step);
-        if (step is null)
+        var points = store.StepHistory(key.Recipe, key.Step, RecipeStepYields.MaxHistory, day);
+        if (points.Count == 0)
         {
-            // A recipe that has since been removed from the definitions has no limits to draw against.
             return null;
         }
 
-        var history = store.StepHistory(key.Recipe, key.Step, RecipeStepYields.MaxHistory, day)
-            .Select(p => new YieldPoint(p.BatchId, p.ProductionDay, p.YieldPct, p.ProductionDay == day))
-            .ToList();
-        return new RecipeStepYields(key.Recipe, key.Step, step.Name, step.YieldPct.Min, step.YieldPct.Max, history);
+        // The step's name is only a label: from the definitions when they still have the step, else its code.
+        var name = catalog.Current.Recipes
+            .Where(r => string.Equals(r.Code, key.Recipe, StringComparison.OrdinalIgnoreCase))
+            .OrderByDescending(r => r.Version)
+            .Select(r => r.FindStep(key.Step)?.Name)
+            .FirstOrDefault(n => n is not null) ?? key.Step;
+        var latest = points[^1];
+        var history = points.Select(p => new YieldPoint(p.BatchId, p.ProductionDay, p.YieldPct, p.ProductionDay == day)).ToList();
+        return new RecipeStepYields(key.Recipe, key.Step, name, latest.YieldMinPct, latest.YieldMaxPct, history);
     }
 }

@@ -140,7 +140,7 @@ public sealed class IngestPipeline(
 
         // Same bytes as a file quarantined before: logged as a duplicate and sent back to quarantine
         // with a fresh report, so only its errors are wanted; its batches are dropped as they are read.
-        var scan = Scan(file, content, catalog.Current, static _ => { });
+        var scan = Scan(file, content, catalog.Current, calendar.Zone, static _ => { });
         var ingest = scan.IsValid
             ? FileIngest.Accepted(file.Name, sha256, file.ArrivedAt, [])
             : FileIngest.Quarantined(file.Name, sha256, file.ArrivedAt, scan.Errors, QuarantineReport.Render(file.Name, sha256, scan.Errors, time.GetUtcNow()));
@@ -151,7 +151,7 @@ public sealed class IngestPipeline(
     public (ExportReadResult Read, IReadOnlyList<BatchIngest> Batches) Check(string path, DateTimeOffset arrivedAt)
     {
         var current = catalog.Current;
-        var read = ExportReader.Read(path, Path.GetFileName(path), current);
+        var read = ExportReader.Read(path, Path.GetFileName(path), current, calendar.Zone);
         var batches = read.IsValid ? read.Batches.Select(b => Reconcile(b, current, arrivedAt)).ToList() : [];
         return (read, batches);
     }
@@ -173,7 +173,7 @@ public sealed class IngestPipeline(
                 // are read, and a file rewritten in between is not stored (it is read again) rather than stored as
                 // one content under the hash of another.
                 using var hashing = new HashingReadStream(new FileStream(file.FullPath, FileMode.Open, FileAccess.Read, FileShare.Read, 81920, FileOptions.SequentialScan));
-                scan = ExportReader.Scan(hashing, file.Name, current, OnBatch);
+                scan = ExportReader.Scan(hashing, file.Name, current, calendar.Zone, OnBatch);
                 if (!string.Equals(hashing.FinishHash(), sha256, StringComparison.Ordinal))
                 {
                     return StreamedFileEnd.Changed;
@@ -181,7 +181,7 @@ public sealed class IngestPipeline(
             }
             else
             {
-                scan = Scan(file, content, current, OnBatch);
+                scan = Scan(file, content, current, calendar.Zone, OnBatch);
             }
 
             return scan.IsValid
@@ -198,15 +198,15 @@ public sealed class IngestPipeline(
         }
     }
 
-    private static ExportScanResult Scan(ReadyFile file, byte[]? content, ProcessCatalog current, Action<BatchRecord> onBatch)
+    private static ExportScanResult Scan(ReadyFile file, byte[]? content, ProcessCatalog current, TimeZoneInfo zone, Action<BatchRecord> onBatch)
     {
         if (content is null)
         {
-            return ExportReader.Scan(file.FullPath, file.Name, current, onBatch);
+            return ExportReader.Scan(file.FullPath, file.Name, current, zone, onBatch);
         }
 
         using var stream = new MemoryStream(content, writable: false);
-        return ExportReader.Scan(stream, file.Name, current, onBatch);
+        return ExportReader.Scan(stream, file.Name, current, zone, onBatch);
     }
 
     private BatchIngest ReconcileOrFault(BatchRecord batch, ProcessCatalog current, DateTimeOffset arrivedAt)
@@ -282,7 +282,9 @@ public sealed class IngestPipeline(
         foreach (var batch in result.Batches)
         {
             // Names as the user reads them (new, revision, yield-low, major), never the program's enum names.
-            logger.LogInformation("{File} batch {Batch} {Disposition} as revision {Revision} with {FlagCount} flags", file.Name, batch.BatchId, batch.Disposition.ToText(), batch.Revision, batch.FlagIds.Count);
+            logger.LogInformation(
+                "{File} batch {Batch} {Disposition} as revision {Revision} with {FlagCount} flags; recipe {Recipe} v{RecipeVersion} ({RecipeVersionSource})",
+                file.Name, batch.BatchId, batch.Disposition.ToText(), batch.Revision, batch.FlagIds.Count, batch.Recipe, batch.RecipeVersion, batch.RecipeVersionSource.ToText());
         }
 
         if (outcome == IngestOutcome.Duplicate)

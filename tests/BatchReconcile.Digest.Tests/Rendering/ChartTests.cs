@@ -14,7 +14,7 @@ public class ChartTests
         var outcome = Steps.Outcome("S3", massIn: 400, reactant: 150, recovered: 120, stoich: 130, theory: 100, actual: 104,
             inWaste: 1, inSamples: 0, massOut: 390, vented: 2, ventedMax: 3, u: 0.8);
         var data = SeededDigest.Create();
-        var one = new DigestData(data.SiteName, data.Day, data.GeneratedAt, 1, 1, 0, [], [], [new FlaggedStep("B-7", 1, "PX-204", outcome, 2, 1)], []);
+        var one = new DigestData(data.SiteName, data.Day, data.GeneratedAt, 1, 1, 0, [], [], [new FlaggedStep("B-7", 1, "PX-204", Steps.Judged(outcome, 2, 1))], []);
 
         var html = HtmlDigestRenderer.Render(one);
         var ladder = XElement.Parse(Html.SvgFragments(html)[0]);
@@ -57,10 +57,29 @@ public class ChartTests
     {
         var data = SeededDigest.Create();
         var outcome = data.FlaggedSteps[0].Outcome with { ClosurePct = null };
-        var one = new DigestData(data.SiteName, data.Day, data.GeneratedAt, 1, 1, 0, [], [], [new FlaggedStep("B-7", 1, "PX-204", outcome, 2, 1)], []);
+        var one = new DigestData(data.SiteName, data.Day, data.GeneratedAt, 1, 1, 0, [], [], [new FlaggedStep("B-7", 1, "PX-204", Steps.Judged(outcome, 2, 1))], []);
 
         var html = HtmlDigestRenderer.Render(one);
         Assert.Single(Html.SvgFragments(html));
         Assert.Contains("No closure", html, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Limits_not_stored_with_a_step_are_shown_as_unknown_never_as_zero()
+    {
+        var data = SeededDigest.Create();
+        var outcome = data.FlaggedSteps[0].Outcome with { Limits = BatchReconcile.Reconciliation.Outcomes.StepLimits.Unknown };
+        var yields = new RecipeStepYields("PX-204", "S2", "Boc removal", null, null, data.Yields[0].History);
+        var one = new DigestData(data.SiteName, data.Day, data.GeneratedAt, 1, 1, 0, [], [], [new FlaggedStep("B-7", 1, "PX-204", outcome)], [yields]);
+
+        var html = HtmlDigestRenderer.Render(one);
+        var md = MarkdownDigestRenderer.Render(one);
+
+        Assert.Contains("<dt>Tolerance</dt><dd>unknown (not stored with this step)</dd>", html, StringComparison.Ordinal);
+        Assert.Contains("± unknown (k = unknown)", html, StringComparison.Ordinal);
+        Assert.Contains("Limits unknown, as stored", html, StringComparison.Ordinal);
+        Assert.DoesNotContain("± 0.0 %", html, StringComparison.Ordinal);
+        Assert.Contains("tolerance unknown.", md, StringComparison.Ordinal);
+        Assert.DoesNotContain("± 0.0 %", md, StringComparison.Ordinal);
     }
 }

@@ -43,11 +43,11 @@ internal static class SeededDigest
         var flagged = new List<FlaggedStep>
         {
             new(B(10), 1, "PX-204", Steps.Outcome("S2", massIn: 1250, reactant: 310, recovered: 640, stoich: 290, theory: 205, actual: 211.6,
-                inWaste: 5.3, inSamples: 0.4, massOut: 1201.2, vented: 36.7, ventedMax: 37.5, u: 1.9), 2.0, 2.0),
+                inWaste: 5.3, inSamples: 0.4, massOut: 1201.2, vented: 36.7, ventedMax: 37.5, u: 1.9, k: 2.0, tolerance: 2.0)),
             new(B(9), 1, "PX-204", Steps.Outcome("S2", massIn: 48.25, reactant: 12.5, recovered: 20.1, stoich: 11.2, theory: 8.4, actual: 6.84,
-                inWaste: 0.3, inSamples: 0.05, massOut: 47.9, vented: 0, ventedMax: 0, u: 0.07), 2.0, 1.5),
+                inWaste: 0.3, inSamples: 0.05, massOut: 47.9, vented: 0, ventedMax: 0, u: 0.07, k: 2.0, tolerance: 1.5)),
             new(B(9), 2, "PX-204", Steps.Outcome("S1", massIn: 820, reactant: 240, recovered: 300, stoich: 226, theory: 180, actual: 168,
-                inWaste: 2, inSamples: 0.5, massOut: 826.3, vented: 0, ventedMax: 0, u: 1.2), 2.0, 0.5),
+                inWaste: 2, inSamples: 0.5, massOut: 826.3, vented: 0, ventedMax: 0, u: 1.2, k: 2.0, tolerance: 0.5)),
         };
 
         var open = new List<OpenFlagItem>

@@ -18,9 +18,11 @@ internal static class Steps
     /// <param name="vented">vented estimate at the actual extent.</param>
     /// <param name="ventedMax">vented estimate at the full extent.</param>
     /// <param name="u">combined standard uncertainty of the gap, kg.</param>
+    /// <param name="k">coverage factor stored with the step (U = k·u).</param>
+    /// <param name="tolerance">balance tolerance stored with the step, % of charged.</param>
     public static StepOutcome Outcome(
         string step, double massIn, double reactant, double recovered, double stoich, double theory, double actual,
-        double inWaste, double inSamples, double massOut, double vented, double ventedMax, double u, params Flag[] flags)
+        double inWaste, double inSamples, double massOut, double vented, double ventedMax, double u, double k = 2.0, double tolerance = 2.0, params Flag[] flags)
     {
         var rungs = new (string Key, string Label, double Kg)[]
         {
@@ -40,6 +42,11 @@ internal static class Steps
             RmePct: 100 * actual / reactant, Mrp: null, OverallRmePct: null, Pmi: massIn / actual, CompleteEFactor: null, SimpleEFactor: null,
             MassInKg: massIn, ReactantMassKg: reactant, StoichiometricMassKg: stoich, RecoveredKg: recovered, MassOutKg: massOut,
             VentedKg: vented, VentedMaxKg: ventedMax, GapKg: gap, ClosurePct: 100 * (massOut + vented) / massIn,
-            CombinedUncertaintyKg: u, Equivalents: new Dictionary<string, double>(), Ladder: ladder, Flags: flags);
+            CombinedUncertaintyKg: u, Equivalents: new Dictionary<string, double>(), Ladder: ladder, Flags: flags,
+            Limits: new StepLimits(88.0, 98.0, tolerance, k, k * u, new Dictionary<string, Records.Definitions.ValueRange>(), 2.0));
     }
+
+    /// <summary>The outcome as if judged with coverage factor <paramref name="k"/> and balance tolerance <paramref name="tolerance"/> %.</summary>
+    public static StepOutcome Judged(StepOutcome outcome, double k, double tolerance) =>
+        outcome with { Limits = outcome.Limits with { CoverageFactor = k, BalanceTolerancePct = tolerance, ExpandedUncertaintyKg = k * outcome.CombinedUncertaintyKg } };
 }

@@ -103,7 +103,7 @@ public class ProductionDayCalendarTests
     public void Day_of_a_batch_is_that_of_its_last_output_row_else_of_the_arrival()
     {
         var arrival = Parse("2026-11-25T09:15:00+01:00");
-        var batch = new BatchRecord("B-1", "R", 1, [], []);
+        var batch = new BatchRecord("B-1", "R", 1, RecipeVersionSource.Export, null, [], []);
         Assert.Equal(new DateOnly(2026, 11, 24), Berlin6.DayOfBatch(new BatchOutcome(batch, [], Parse("2026-11-25T05:40:00+01:00")), arrival));
         Assert.Equal(new DateOnly(2026, 11, 25), Berlin6.DayOfBatch(new BatchOutcome(batch, [], null), arrival));
     }

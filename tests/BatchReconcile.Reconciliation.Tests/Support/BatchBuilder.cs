@@ -32,7 +32,7 @@ internal sealed class BatchBuilder(string batchId, string recipe)
         return this;
     }
 
-    public BatchRecord Build() => new(batchId, recipe, 1, _rows.ToArray(), []);
+    public BatchRecord Build() => new(batchId, recipe, 1, RecipeVersionSource.Export, null, _rows.ToArray(), []);
 
     private BatchBuilder Add(string step, EntryKind entry, string? material, string? stream, double? quantity, MassUnit? unit, double? assay, DateTimeOffset? at)
     {

@@ -233,7 +233,59 @@ public class DefinitionRefusalTests
 
         Assert.True(result.IsSuccess, result.ToString());
         Assert.Equal(98, result.Catalog.FindRecipe("BZC-900", 1)!.Steps[1].YieldPct.Max);
-        Assert.Equal(97, result.Catalog.FindRecipe("BZC-900")!.Steps[1].YieldPct.Max);
+        Assert.Equal(97, result.Catalog.NewestRecipe("BZC-900")!.Steps[1].YieldPct.Max);
+    }
+
+    [Theory]
+    [InlineData("\"2026-02-30\"", "the string \"2026-02-30\"")]
+    [InlineData("\"01.03.2026\"", "the string \"01.03.2026\"")]
+    [InlineData("\"2026-03-01T00:00:00+01:00\"", "the string \"2026-03-01T00:00:00+01:00\"")]
+    [InlineData("20260301", "the number 20260301")]
+    public void An_effective_date_that_is_not_a_calendar_date_is_refused_where_it_is(string value, string described)
+    {
+        var json = TestDefinitions.Benzocaine.Change("\"version\": 1,", $"\"version\": 1, \"effectiveFrom\": {value},");
+        using var folder = new DefinitionFolder().With("a.json", json);
+
+        var result = ProcessDefinitionLoader.LoadFolder(folder.Path);
+
+        var error = Assert.Single(result.Errors);
+        Assert.Equal(("processes/a.json", "BZC-900", (string?)null), (error.File, error.Recipe, error.Step));
+        Assert.Contains($"'effectiveFrom' must be a calendar date written YYYY-MM-DD", error.Message, StringComparison.Ordinal);
+        Assert.Contains(described, error.Message, StringComparison.Ordinal);
+    }
+
+    [Theory]
+    [InlineData("2026-03-01", "2026-03-01")]
+    [InlineData("2026-03-01", "2026-02-01")]
+    public void A_later_version_that_does_not_take_effect_later_is_refused(string v1, string v2)
+    {
+        var recipeOnly = "{" + TestDefinitions.Benzocaine[TestDefinitions.Benzocaine.IndexOf("\"recipes\"", StringComparison.Ordinal)..];
+        using var folder = new DefinitionFolder()
+            .With("a.json", TestDefinitions.Benzocaine.Change("\"version\": 1,", $"\"version\": 1, \"effectiveFrom\": \"{v1}\","))
+            .With("b.json", recipeOnly.Change("\"version\": 1,", $"\"version\": 2, \"effectiveFrom\": \"{v2}\","));
+
+        var result = ProcessDefinitionLoader.LoadFolder(folder.Path);
+
+        var error = Assert.Single(result.Errors);
+        Assert.Equal(("processes/b.json", "BZC-900"), (error.File, error.Recipe));
+        Assert.Contains($"version 2: 'effectiveFrom' {v2} is not after {v1} of version 1", error.Message, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Effective_dates_are_kept_with_their_versions()
+    {
+        var recipeOnly = "{" + TestDefinitions.Benzocaine[TestDefinitions.Benzocaine.IndexOf("\"recipes\"", StringComparison.Ordinal)..];
+        using var folder = new DefinitionFolder()
+            .With("a.json", TestDefinitions.Benzocaine.Change("\"version\": 1,", "\"version\": 1, \"effectiveFrom\": \"2026-01-05\","))
+            .With("b.json", recipeOnly.Change("\"version\": 1,", "\"version\": 2, \"effectiveFrom\": \"2026-03-10\","));
+
+        var result = ProcessDefinitionLoader.LoadFolder(folder.Path);
+
+        Assert.True(result.IsSuccess, result.ToString());
+        Assert.Equal(new DateOnly(2026, 1, 5), result.Catalog.FindRecipe("BZC-900", 1)!.EffectiveFrom);
+        Assert.Equal(2, result.Catalog.RecipeInEffect("BZC-900", new DateOnly(2026, 3, 10))!.Version);
+        Assert.Equal(1, result.Catalog.RecipeInEffect("BZC-900", new DateOnly(2026, 3, 9))!.Version);
+        Assert.Null(result.Catalog.RecipeInEffect("BZC-900", new DateOnly(2026, 1, 4)));
     }
 
     [Fact]

@@ -32,7 +32,7 @@ public class ProcessDefinitionLoaderTests
     [InlineData("PPZ-220", "S1", "BOCPZ + 2 HCL -> PPZ2HCL + CO2 + IBE", "BOCPZ:1 HCL:2", "PPZ2HCL:1 CO2:1 IBE:1")]
     public void Demo_reactions_load_with_their_stoichiometry(string recipe, string step, string balanced, string reactants, string products)
     {
-        var reaction = LoadRepositoryConfig().FindRecipe(recipe)!.FindStep(step)!.Reaction;
+        var reaction = LoadRepositoryConfig().NewestRecipe(recipe)!.FindStep(step)!.Reaction;
 
         Assert.Equal(balanced, reaction.Balanced);
         Assert.Equal(reactants, Render(reaction.Reactants));
@@ -43,7 +43,7 @@ public class ProcessDefinitionLoaderTests
     public void Boc_removal_vents_carbon_dioxide_and_isobutylene()
     {
         var catalog = LoadRepositoryConfig();
-        var step = catalog.FindRecipe("PPZ-220")!.FindStep("S1")!;
+        var step = catalog.NewestRecipe("PPZ-220")!.FindStep("S1")!;
 
         var vented = step.Reaction.Products.Select(p => catalog.FindMaterial(p.MaterialCode)!).Where(m => m.Vented).Select(m => m.Code);
 
@@ -97,7 +97,7 @@ public class ProcessDefinitionLoaderTests
         var result = ProcessDefinitionLoader.LoadFolder(folder.Path);
 
         Assert.True(result.IsSuccess, result.ToString());
-        var step = result.Catalog.FindRecipe("BZC-900")!.FindStep("S2")!;
+        var step = result.Catalog.NewestRecipe("BZC-900")!.FindStep("S2")!;
         Assert.Equal(FlagSeverity.Minor, step.Severities[FlagCode.YieldLow]);
         Assert.Equal(FlagSeverity.Critical, step.Severities[FlagCode.ProductInWaste]);
         Assert.Equal(2, step.Severities.Count);
@@ -115,7 +115,7 @@ public class ProcessDefinitionLoaderTests
 
         Assert.True(result.IsSuccess, result.ToString());
         Assert.Equal("processes/materials.json", result.Catalog.FindMaterial("BZC")!.SourceFile);
-        Assert.Equal("processes/recipes.json", result.Catalog.FindRecipe("BZC-900")!.SourceFile);
+        Assert.Equal("processes/recipes.json", result.Catalog.NewestRecipe("BZC-900")!.SourceFile);
     }
 
     [Fact]
@@ -141,7 +141,7 @@ public class ProcessDefinitionLoaderTests
         var reloaded = ProcessDefinitionLoader.LoadFolder(folder.Path);
 
         Assert.True(reloaded.IsSuccess, reloaded.ToString());
-        Assert.Equal(2, reloaded.Catalog.FindRecipe("BZC-900")!.Version);
+        Assert.Equal(2, reloaded.Catalog.NewestRecipe("BZC-900")!.Version);
         Assert.Null(reloaded.Catalog.FindRecipe("BZC-900", 1));
     }
 

@@ -63,7 +63,7 @@ public class ReactionBalancingTests
         var result = LoadOneStep(materials, reaction, product);
 
         Assert.True(result.IsSuccess, result.ToString());
-        var built = result.Catalog.FindRecipe("T-1")!.FindStep("S1")!.Reaction;
+        var built = result.Catalog.NewestRecipe("T-1")!.FindStep("S1")!.Reaction;
         Assert.Equal(reaction, built.Text);
         Assert.Equal(balanced, built.Balanced);
         Assert.Equal(coefficients, Render(built));
@@ -90,7 +90,7 @@ public class ReactionBalancingTests
 
         Assert.True(result.IsSuccess, result.ToString());
         Assert.Empty(result.Notes);
-        Assert.Equal(coefficients, Render(result.Catalog.FindRecipe("T-1")!.FindStep("S1")!.Reaction));
+        Assert.Equal(coefficients, Render(result.Catalog.NewestRecipe("T-1")!.FindStep("S1")!.Reaction));
     }
 
     [Fact]
@@ -109,7 +109,7 @@ public class ReactionBalancingTests
 
         Assert.True(result.IsSuccess, result.ToString());
         Assert.Empty(result.Notes);
-        Assert.Equal("NBA + ETOH -> ENB + WATER", result.Catalog.FindRecipe("T-1")!.Steps[0].Reaction.Balanced);
+        Assert.Equal("NBA + ETOH -> ENB + WATER", result.Catalog.NewestRecipe("T-1")!.Steps[0].Reaction.Balanced);
     }
 
     [Fact]

@@ -120,7 +120,7 @@ public class SolutionDefinitionTests
 
         var error = Assert.Single(result.Errors, e => e.Message.Contains("a solution", StringComparison.Ordinal));
         Assert.Equal(
-            "processes/paa.json, recipe T-1, step S1: reaction 'BCN + HCL36 -> PAA' names 'HCL36', a solution (HCL 36 %, WATER 64 %); "
+            "processes/paa.json, recipe T-1 version 1, step S1: reaction 'BCN + HCL36 -> PAA' names 'HCL36', a solution (HCL 36 %, WATER 64 %); "
             + "write the component that reacts (e.g. HCL) in the reaction and charge HCL36 in the batch record: its components are counted from its composition",
             error.ToString());
     }
@@ -135,7 +135,7 @@ public class SolutionDefinitionTests
 
         var error = Assert.Single(result.Errors);
         Assert.Equal(
-            "processes/paa.json, recipe T-1, step S1: equivalents name 'HCL36', a solution; name the component whose equivalents are meant (HCL 36 %, WATER 64 %)",
+            "processes/paa.json, recipe T-1 version 1, step S1: equivalents name 'HCL36', a solution; name the component whose equivalents are meant (HCL 36 %, WATER 64 %)",
             error.ToString());
     }
 

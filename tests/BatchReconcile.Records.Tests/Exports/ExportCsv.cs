@@ -1,4 +1,5 @@
 using System.Text;
+using BatchReconcile.Records.Definitions;
 using BatchReconcile.Records.Exports.Reading;
 
 namespace BatchReconcile.Records.Tests.Exports;
@@ -25,9 +26,16 @@ internal static class ExportCsv
 
     public static ExportReadResult Read(string text) => Read(Encoding.UTF8.GetBytes(text));
 
+    /// <summary>Read against <paramref name="catalog"/> with the site in <paramref name="zone"/>.</summary>
+    public static ExportReadResult Read(string text, ProcessCatalog catalog, TimeZoneInfo zone)
+    {
+        using var stream = new MemoryStream(Encoding.UTF8.GetBytes(text));
+        return ExportReader.Read(stream, FileName, catalog, zone);
+    }
+
     public static ExportReadResult Read(byte[] bytes)
     {
         using var stream = new MemoryStream(bytes);
-        return ExportReader.Read(stream, FileName, TestCatalog.Instance);
+        return ExportReader.Read(stream, FileName, TestCatalog.Instance, TimeZoneInfo.Utc);
     }
 }

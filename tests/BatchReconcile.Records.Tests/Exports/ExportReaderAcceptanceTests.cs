@@ -107,10 +107,10 @@ public class ExportReaderAcceptanceTests
     }
 
     [Theory]
-    [InlineData("", 2, null)]
-    [InlineData("2", 2, 2)]
-    [InlineData("1", 1, 1)]
-    public void Without_a_recipe_version_the_newest_is_used(string version, int expected, int? given)
+    [InlineData("", 2, null, RecipeVersionSource.Newest)]
+    [InlineData("2", 2, 2, RecipeVersionSource.Export)]
+    [InlineData("1", 1, 1, RecipeVersionSource.Export)]
+    public void Without_a_recipe_version_and_without_effective_dates_the_newest_is_used_and_said(string version, int expected, int? given, RecipeVersionSource source)
     {
         var result = ExportCsv.Read(ExportCsv.File(
             $"B1,EST-7,{version},S2,charge,ENB,,100,kg,,,",
@@ -118,6 +118,7 @@ public class ExportReaderAcceptanceTests
 
         var batch = Assert.Single(result.Batches);
         Assert.Equal(expected, batch.RecipeVersion);
+        Assert.Equal(source, batch.RecipeVersionSource);
         Assert.All(batch.Rows, r => Assert.Equal(given, r.RecipeVersion));
     }
 
@@ -217,7 +218,7 @@ public class ExportReaderAcceptanceTests
         {
             File.WriteAllText(path, ExportCsv.File([.. ExportCsv.GoodBatch("B1"), .. ExportCsv.GoodBatch("B2")]), new UTF8Encoding(true));
 
-            var result = ExportReader.Read(path, "B.csv", TestCatalog.Instance);
+            var result = ExportReader.Read(path, "B.csv", TestCatalog.Instance, TimeZoneInfo.Utc);
 
             Assert.Equal(["B1", "B2"], result.Batches.Select(b => b.BatchId));
             Assert.Equal("B.csv", result.FileName);

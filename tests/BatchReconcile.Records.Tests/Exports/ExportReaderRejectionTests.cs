@@ -167,13 +167,14 @@ public class ExportReaderRejectionTests
     [Fact]
     public void A_batch_with_two_versions_of_its_recipe_is_rejected()
     {
-        // No version means the newest (2), which differs from the explicit 1 above it.
+        // A row without a version takes the one its batch states (line 3); two stated versions disagree (line 4).
         var text = ExportCsv.File(
             "B1,EST-7,1,S1,charge,NBA,,100,kg,,,",
-            "B1,EST-7,,S1,product,ENB,,108,kg,,,");
+            "B1,EST-7,,S1,charge,ETOH,,400,kg,,,",
+            "B1,EST-7,2,S1,product,ENB,,108,kg,,,");
 
         var error = Assert.Single(ExportCsv.Read(text).Errors);
-        Assert.Equal((3, "recipe_version"), (error.Line, error.Column));
+        Assert.Equal((4, "recipe_version"), (error.Line, error.Column));
         Assert.Contains("this row says EST-7 version 2", error.Reason, StringComparison.Ordinal);
     }
 

@@ -73,7 +73,7 @@ public class ExportReaderStreamingTests
             var chargedKg = 0.0;
             var outKg = 0.0;
             var ids = new HashSet<string>(StringComparer.Ordinal);
-            var scan = ExportReader.Scan(path, "big.csv", TestCatalog.Instance, batch =>
+            var scan = ExportReader.Scan(path, "big.csv", TestCatalog.Instance, TimeZoneInfo.Utc, batch =>
             {
                 count++;
                 ids.Add(batch.BatchId);
@@ -107,13 +107,13 @@ public class ExportReaderStreamingTests
         try
         {
             var delivered = 0;
-            var scan = ExportReader.Scan(path, "big.csv", TestCatalog.Instance, _ => delivered++);
+            var scan = ExportReader.Scan(path, "big.csv", TestCatalog.Instance, TimeZoneInfo.Utc, _ => delivered++);
 
             Assert.Equal([(502, "unit"), (15_002, "material")], scan.Errors.Select(e => (e.Line, e.Column)));
             Assert.Equal(50, delivered); // the 50 batches before the first error; the caller discards them
             Assert.Equal(RowsPerBatch, scan.PeakRowsHeld);
 
-            var read = ExportReader.Read(path, "big.csv", TestCatalog.Instance);
+            var read = ExportReader.Read(path, "big.csv", TestCatalog.Instance, TimeZoneInfo.Utc);
             Assert.Empty(read.Batches);
             Assert.Equal(scan.Errors, read.Errors);
         }
@@ -130,7 +130,7 @@ public class ExportReaderStreamingTests
         using var stream = new ForwardOnlyStream(bytes);
 
         var batches = new List<BatchRecord>();
-        var scan = ExportReader.Scan(stream, "pipe.csv", TestCatalog.Instance, batches.Add);
+        var scan = ExportReader.Scan(stream, "pipe.csv", TestCatalog.Instance, TimeZoneInfo.Utc, batches.Add);
 
         Assert.True(scan.IsValid);
         Assert.Equal(20, batches.Count);
@@ -146,7 +146,7 @@ public class ExportReaderStreamingTests
         using var stream = new MemoryStream(bytes);
         stream.Position = prefix.Length;
 
-        var result = ExportReader.Read(stream, "s.csv", TestCatalog.Instance);
+        var result = ExportReader.Read(stream, "s.csv", TestCatalog.Instance, TimeZoneInfo.Utc);
 
         Assert.Equal("B1", Assert.Single(result.Batches).BatchId);
     }

@@ -211,6 +211,11 @@ public sealed class CommitTests
                 case IReadOnlyDictionary<string, double> equivalents:
                     Assert.Equal(equivalents.OrderBy(p => p.Key), ((IReadOnlyDictionary<string, double>)a!).OrderBy(p => p.Key));
                     break;
+                case StepLimits limits:
+                    var stored = (StepLimits)a!;
+                    Assert.Equal(limits with { EquivalentsRanges = null }, stored with { EquivalentsRanges = null });
+                    Assert.Equal(limits.EquivalentsRanges?.OrderBy(p => p.Key), stored.EquivalentsRanges?.OrderBy(p => p.Key));
+                    break;
                 case IReadOnlyList<LadderRung> ladder:
                     Assert.Equal(ladder, (IReadOnlyList<LadderRung>)a!);
                     break;

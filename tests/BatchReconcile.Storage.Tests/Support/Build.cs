@@ -57,7 +57,7 @@ internal static class Build
             Row(line++, batchId, "S2", EntryKind.Product, "BZC", 70.0, recordedAt: finished),
             Row(line, batchId, "S2", EntryKind.Recovered, "ETOH", 280.0),
         ];
-        return new BatchRecord(batchId, Recipe, recipeVersion, rows, []);
+        return new BatchRecord(batchId, Recipe, recipeVersion, RecipeVersionSource.Export, null, rows, []);
     }
 
     public static Flag Flag(
@@ -94,7 +94,10 @@ internal static class Build
         CombinedUncertaintyKg: seed + 0.22,
         Equivalents: nulls ? new Dictionary<string, double>() : new Dictionary<string, double> { ["ETOH"] = seed + 0.23, ["H2SO4"] = 0.1 / 3 },
         Ladder: [new LadderRung("auxiliaries-not-recovered", "auxiliaries not recovered", seed + 0.24, 1.0 / 7), new LadderRung("yield-loss-unexplained", "yield loss, unexplained", -(seed + 0.25), -0.5)],
-        Flags: flags);
+        Flags: flags,
+        Limits: nulls ? StepLimits.Unknown : new StepLimits(
+            seed + 0.26, seed + 0.27, seed + 0.28, seed + 0.29, seed + 0.30,
+            new Dictionary<string, ValueRange> { ["ETOH"] = new(seed + 0.31, seed + 0.32) }, seed + 0.33));
 
     /// <summary>The batch reconciled: steps S1 and S2, each flag on the step it names.</summary>
     public static BatchOutcome Outcome(BatchRecord batch, params Flag[] flags) => new(

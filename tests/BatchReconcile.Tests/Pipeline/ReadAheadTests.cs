@@ -125,5 +125,5 @@ public sealed class ReadAheadTests
 
     private static string Id(int file, int batch) => FormattableString.Invariant($"F{file}-B{batch}");
 
-    private static BatchIngest Batch(string id) => new(new BatchOutcome(new BatchRecord(id, "BZC-410", 1, [], []), [], null), Day);
+    private static BatchIngest Batch(string id) => new(new BatchOutcome(new BatchRecord(id, "BZC-410", 1, RecipeVersionSource.Export, null, [], []), [], null), Day);
 }

@@ -24,21 +24,28 @@ internal static class ClosureChart
             return null;
         }
 
-        var kuPct = ExpandedUncertaintyPct(step);
+        // Unknown limits (a step stored before they were kept) are drawn as nothing, never as a band of 0.
+        var kuKnown = ExpandedUncertaintyPct(step);
+        var kuPct = kuKnown ?? 0;
         var closureAtMaxVent = closure + (100 * (outcome.VentedMaxKg - outcome.VentedKg) / outcome.MassInKg);
-        var tol = step.TolerancePct;
-        var low = Math.Min(Math.Min(100 - tol, closure - kuPct), closureAtMaxVent);
-        var high = Math.Max(Math.Max(100 + tol, closure + kuPct), closureAtMaxVent);
+        var tolKnown = step.TolerancePct;
+        var tol = tolKnown ?? 0;
+        var low = Math.Min(Math.Min(Math.Min(100 - tol, closure - kuPct), closureAtMaxVent), 100);
+        var high = Math.Max(Math.Max(Math.Max(100 + tol, closure + kuPct), closureAtMaxVent), 100);
         var pad = Math.Max((high - low) * 0.1, 0.2);
         var x = Axis.Over(low - pad, high + pad, PlotLeft, PlotRight, 8);
 
         var title = $"Mass-balance closure of batch {step.BatchId}, step {step.Step}: {DigestText.Pct(closure)} % "
-            + $"± {DigestText.Pct(kuPct)} % (k = {DigestText.Number(step.CoverageFactor, 1)}), tolerance ± {DigestText.Pct(tol)} %";
+            + $"± {Known(kuKnown)} (k = {(step.CoverageFactor is { } k ? DigestText.Number(k, 1) : "unknown")}), tolerance ± {Known(tolKnown)}";
         var svg = new Svg(Width, Height, title,
             "Grey band: the step's tolerance around 100 %. Blue band: closure ± k times the combined standard uncertainty. Dark line: the closure.");
 
-        svg.Rect(x.Map(100 - tol), BandTop, x.Map(100 + tol) - x.Map(100 - tol), BandBottom - BandTop, Svg.Faint, Svg.Light,
-            tooltip: $"tolerance 100 ± {DigestText.Pct(tol)} %");
+        if (tolKnown is not null)
+        {
+            svg.Rect(x.Map(100 - tol), BandTop, x.Map(100 + tol) - x.Map(100 - tol), BandBottom - BandTop, Svg.Faint, Svg.Light,
+                tooltip: $"tolerance 100 ± {DigestText.Pct(tol)} %");
+        }
+
         svg.Line(x.Map(100), BandTop - 6, x.Map(100), BandBottom + 2, Svg.Mid, 1, dashed: true);
         svg.Text(x.Map(100), BandTop - 9, "100 %", "middle", 10, Svg.Mid);
 
@@ -52,9 +59,13 @@ internal static class ClosureChart
         svg.Line(PlotLeft, BandBottom + 8, PlotRight, BandBottom + 8, Svg.Mid);
         svg.Text((PlotLeft + PlotRight) / 2, BandBottom + 42, "closure, % of charged mass", "middle", 11);
 
-        var uLeft = x.Map(closure - kuPct);
-        svg.Rect(uLeft, BandTop + 10, Math.Max(x.Map(closure + kuPct) - uLeft, 1), BandBottom - BandTop - 20, Svg.AccentLight, Svg.Accent,
-            tooltip: $"closure ± k·u: {DigestText.Pct(closure - kuPct)} to {DigestText.Pct(closure + kuPct)} %");
+        if (kuKnown is not null)
+        {
+            var uLeft = x.Map(closure - kuPct);
+            svg.Rect(uLeft, BandTop + 10, Math.Max(x.Map(closure + kuPct) - uLeft, 1), BandBottom - BandTop - 20, Svg.AccentLight, Svg.Accent,
+                tooltip: $"closure ± k·u: {DigestText.Pct(closure - kuPct)} to {DigestText.Pct(closure + kuPct)} %");
+        }
+
         if (closureAtMaxVent > closure)
         {
             var mid = (BandTop + BandBottom) / 2;
@@ -69,7 +80,10 @@ internal static class ClosureChart
         return svg.ToMarkup();
     }
 
-    /// <summary>k · u as % of the charged mass.</summary>
-    public static double ExpandedUncertaintyPct(FlaggedStep step) =>
-        step.Outcome.MassInKg > 0 ? 100 * step.CoverageFactor * step.Outcome.CombinedUncertaintyKg / step.Outcome.MassInKg : 0;
+    /// <summary>The stored expanded uncertainty U = k · u as % of the charged mass; null when not known.</summary>
+    public static double? ExpandedUncertaintyPct(FlaggedStep step) =>
+        step.Outcome.Limits.ExpandedUncertaintyKg is { } u ? (step.Outcome.MassInKg > 0 ? 100 * u / step.Outcome.MassInKg : 0) : null;
+
+    /// <summary>"1.5 %", or "unknown" for a limit not stored with the step.</summary>
+    public static string Known(double? pct) => pct is { } p ? DigestText.Pct(p) + " %" : "unknown";
 }

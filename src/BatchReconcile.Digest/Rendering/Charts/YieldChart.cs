@@ -15,22 +15,35 @@ internal static class YieldChart
     public static string Draw(RecipeStepYields step)
     {
         var values = step.History.Where(p => p.YieldPct is not null).Select(p => p.YieldPct!.Value).ToList();
-        var low = Math.Min(step.MinYieldPct, values.Count > 0 ? values.Min() : step.MinYieldPct);
-        var high = Math.Max(step.MaxYieldPct, values.Count > 0 ? values.Max() : step.MaxYieldPct);
+        // Limits not stored with the batch are drawn as nothing, never assumed.
+        var bounds = values.Concat(new[] { step.MinYieldPct, step.MaxYieldPct }.OfType<double>()).DefaultIfEmpty(100).ToList();
+        var low = bounds.Min();
+        var high = bounds.Max();
         var pad = Math.Max((high - low) * 0.1, 0.5);
         var y = Axis.Over(low - pad, high + pad, PlotBottom, PlotTop, 4);
 
         var title = $"Yields of recipe {step.Recipe}, step {step.Step} ({step.StepName}) over the last {step.History.Count} batches, "
-            + $"limits {DigestText.Pct(step.MinYieldPct)} to {DigestText.Pct(step.MaxYieldPct)} %";
+            + $"limits {HtmlDigestRenderer.YieldLimits(step)}";
         var svg = new Svg(Width, Height, title,
             "Grey band: the step's yield limits. Hollow circles: earlier batches. Filled squares: batches of the digest's day.");
 
-        svg.Rect(PlotLeft, y.Map(step.MaxYieldPct), PlotRight - PlotLeft, y.Map(step.MinYieldPct) - y.Map(step.MaxYieldPct), Svg.Faint);
-        svg.Line(PlotLeft, y.Map(step.MaxYieldPct), PlotRight, y.Map(step.MaxYieldPct), Svg.Mid, 1, dashed: true);
-        svg.Line(PlotLeft, y.Map(step.MinYieldPct), PlotRight, y.Map(step.MinYieldPct), Svg.Mid, 1, dashed: true);
+        if (step.MinYieldPct is { } min && step.MaxYieldPct is { } max)
+        {
+            svg.Rect(PlotLeft, y.Map(max), PlotRight - PlotLeft, y.Map(min) - y.Map(max), Svg.Faint);
+        }
+
         // Limit labels sit in the right margin so they never cover a point.
-        svg.Text(PlotRight + 4, y.Map(step.MaxYieldPct) + 3, "max " + DigestText.Pct(step.MaxYieldPct), "start", 9, Svg.Mid);
-        svg.Text(PlotRight + 4, y.Map(step.MinYieldPct) + 3, "min " + DigestText.Pct(step.MinYieldPct), "start", 9, Svg.Mid);
+        if (step.MaxYieldPct is { } top)
+        {
+            svg.Line(PlotLeft, y.Map(top), PlotRight, y.Map(top), Svg.Mid, 1, dashed: true);
+            svg.Text(PlotRight + 4, y.Map(top) + 3, "max " + DigestText.Pct(top), "start", 9, Svg.Mid);
+        }
+
+        if (step.MinYieldPct is { } bottom)
+        {
+            svg.Line(PlotLeft, y.Map(bottom), PlotRight, y.Map(bottom), Svg.Mid, 1, dashed: true);
+            svg.Text(PlotRight + 4, y.Map(bottom) + 3, "min " + DigestText.Pct(bottom), "start", 9, Svg.Mid);
+        }
 
         foreach (var tick in y.Ticks())
         {

@@ -288,6 +288,7 @@ internal static class DefinitionFileReader
         at = file.InRecipe(code, version);
 
         var name = fields.String(item, "name", required: true, at, owner);
+        var effectiveFrom = ReadEffectiveFrom(item, owner, at, fields, errors);
         var steps = new List<StepDraft>();
         if (fields.Get(item, "steps", required: true, at, owner) is { } stepsValue
             && fields.IsKind(stepsValue, JsonValueKind.Array, at, $"{owner}: 'steps'"))
@@ -323,7 +324,26 @@ internal static class DefinitionFileReader
             }
         }
 
-        return new RecipeDraft(code, version, name, steps, file.File, path);
+        return new RecipeDraft(code, version, name, steps, file.File, path, effectiveFrom);
+    }
+
+    /// <summary>'effectiveFrom': a calendar date "YYYY-MM-DD" (the site's time zone), optional.</summary>
+    private static DateOnly? ReadEffectiveFrom(JsonElement item, string owner, DefinitionLocation at, JsonFields fields, List<DefinitionError> errors)
+    {
+        if (fields.Get(item, "effectiveFrom", required: false, at, owner) is not { } value)
+        {
+            return null;
+        }
+
+        if (value.ValueKind == JsonValueKind.String
+            && DateOnly.TryParseExact(value.GetString()!.Trim(), "yyyy-MM-dd", CultureInfo.InvariantCulture, DateTimeStyles.None, out var date))
+        {
+            return date;
+        }
+
+        errors.Add(at.Error(
+            $"{owner}: 'effectiveFrom' must be a calendar date written YYYY-MM-DD, e.g. \"2026-03-01\" (a date in the site's time zone), found {JsonFields.Describe(value)}"));
+        return null;
     }
 
     private static StepDraft? ReadStep(JsonElement item, string path, DefinitionLocation recipe, JsonFields fields, List<DefinitionError> errors)

@@ -27,7 +27,8 @@ internal sealed record RecipeDraft(
     string? Name,
     IReadOnlyList<StepDraft> Steps,
     string File,
-    string Path);
+    string Path,
+    DateOnly? EffectiveFrom = null);
 
 internal sealed record StepDraft(
     string? Code,

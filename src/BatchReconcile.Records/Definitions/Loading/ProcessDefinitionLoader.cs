@@ -108,6 +108,7 @@ public static class ProcessDefinitionLoader
             }
         }
 
+        CheckEffectiveDates(recipes, errors);
         var files = ordered.Select(s => s.Name).ToArray();
         if (errors.Count > 0)
         {
@@ -233,8 +234,33 @@ public static class ProcessDefinitionLoader
         // Any error anywhere fails the whole load, so a partial recipe is never handed out; the
         // fields are only complete when the first pass found nothing wrong with them either.
         return steps.Count == draft.Steps.Count && draft is { Code: not null, Version: not null, Name: not null } && steps.Count > 0
-            ? new Recipe(draft.Code, draft.Version.Value, draft.Name, steps, draft.File)
+            ? new Recipe(draft.Code, draft.Version.Value, draft.Name, steps, draft.File, draft.EffectiveFrom)
             : null;
+    }
+
+    /// <summary>
+    /// The effective dates of one recipe's versions must name one version per date, and a later version
+    /// must not take effect before an earlier one: either would leave the version of an export without
+    /// one to a guess (docs/process-definitions.md).
+    /// </summary>
+    private static void CheckEffectiveDates(List<Recipe> recipes, List<DefinitionError> errors)
+    {
+        foreach (var versions in recipes.GroupBy(r => r.Code, StringComparer.OrdinalIgnoreCase))
+        {
+            Recipe? previous = null;
+            foreach (var recipe in versions.Where(r => r.EffectiveFrom is not null).OrderBy(r => r.Version))
+            {
+                if (previous is not null && recipe.EffectiveFrom <= previous.EffectiveFrom)
+                {
+                    var at = new DefinitionLocation(recipe.SourceFile, recipe.Code);
+                    errors.Add(at.Error(string.Create(
+                        CultureInfo.InvariantCulture,
+                        $"version {recipe.Version}: 'effectiveFrom' {recipe.EffectiveFrom:yyyy-MM-dd} is not after {previous.EffectiveFrom:yyyy-MM-dd} of version {previous.Version}; each later version takes effect on a later date")));
+                }
+
+                previous = recipe;
+            }
+        }
     }
 
     private static Dictionary<string, ValueRange> BuildEquivalents(

@@ -26,6 +26,11 @@ namespace BatchReconcile.Records.Exports.Reading;
 /// <item>Batches need not be contiguous. A file (or seekable stream) is read twice: first only to find
 /// where each batch ends, so that memory holds the open batches only (one, when batches are contiguous),
 /// plus one small entry per batch id.</item>
+/// <item>recipe_version: a row that gives it names the batch's version (every row that gives one must give the
+/// same). A batch whose rows give none gets the version in effect on the local calendar date, in
+/// <c>siteZone</c>, of its earliest recorded_at (<see cref="Definitions.ProcessCatalog.RecipeInEffect"/>), else the
+/// newest, stated as <see cref="RecipeVersionSource.Newest"/> (the reconciler flags it). Steps of rows without a
+/// version are checked against the chosen version when the batch is complete.</item>
 /// </list>
 /// </remarks>
 public static class ExportReader
@@ -34,19 +39,19 @@ public static class ExportReader
     public const int MaxErrors = 1000;
 
     /// <summary>Reads the file at <paramref name="path"/>; <paramref name="fileName"/> is what errors name.</summary>
-    public static ExportReadResult Read(string path, string fileName, ProcessCatalog catalog)
+    public static ExportReadResult Read(string path, string fileName, ProcessCatalog catalog, TimeZoneInfo siteZone)
     {
         var batches = new List<BatchRecord>();
-        var scan = Scan(path, fileName, catalog, batches.Add);
+        var scan = Scan(path, fileName, catalog, siteZone, batches.Add);
         return Collect(scan, batches);
     }
 
     /// <summary>Reads an export from a stream (left open). A seekable stream is read twice, from its
     /// current position, so that batches are complete as soon as their last row is read.</summary>
-    public static ExportReadResult Read(Stream stream, string fileName, ProcessCatalog catalog)
+    public static ExportReadResult Read(Stream stream, string fileName, ProcessCatalog catalog, TimeZoneInfo siteZone)
     {
         var batches = new List<BatchRecord>();
-        var scan = Scan(stream, fileName, catalog, batches.Add);
+        var scan = Scan(stream, fileName, catalog, siteZone, batches.Add);
         return Collect(scan, batches);
     }
 
@@ -57,8 +62,9 @@ public static class ExportReader
     /// still be found after some were: the file is valid only when the result has no errors, and the
     /// caller must then discard what it got (store inside a transaction and roll it back).
     /// </summary>
-    public static ExportScanResult Scan(string path, string fileName, ProcessCatalog catalog, Action<BatchRecord> onBatch)
+    public static ExportScanResult Scan(string path, string fileName, ProcessCatalog catalog, TimeZoneInfo siteZone, Action<BatchRecord> onBatch)
     {
+        ArgumentNullException.ThrowIfNull(siteZone);
         ArgumentNullException.ThrowIfNull(onBatch);
         var errors = new ExportErrorList(fileName, MaxErrors);
 
@@ -69,16 +75,17 @@ public static class ExportReader
             lastRows = ExportScanner.FindLastRows(first);
         }
 
-        var scanner = new ExportScanner(fileName, catalog, onBatch, errors, lastRows);
+        var scanner = new ExportScanner(fileName, catalog, siteZone, onBatch, errors, lastRows);
         using var reader = CsvReader.FromFile(path, ExportScanner.Options(scanner.OnMalformed));
         return scanner.Run(reader);
     }
 
-    /// <summary>Streaming read of a stream (left open); see <see cref="Scan(string, string, ProcessCatalog, Action{BatchRecord})"/>.
+    /// <summary>Streaming read of a stream (left open); see <see cref="Scan(string, string, ProcessCatalog, TimeZoneInfo, Action{BatchRecord})"/>.
     /// A stream that cannot seek is read once, and then every batch is held until the end of the file.</summary>
-    public static ExportScanResult Scan(Stream stream, string fileName, ProcessCatalog catalog, Action<BatchRecord> onBatch)
+    public static ExportScanResult Scan(Stream stream, string fileName, ProcessCatalog catalog, TimeZoneInfo siteZone, Action<BatchRecord> onBatch)
     {
         ArgumentNullException.ThrowIfNull(stream);
+        ArgumentNullException.ThrowIfNull(siteZone);
         ArgumentNullException.ThrowIfNull(onBatch);
         var errors = new ExportErrorList(fileName, MaxErrors);
 
@@ -94,7 +101,7 @@ public static class ExportReader
             stream.Position = start;
         }
 
-        var scanner = new ExportScanner(fileName, catalog, onBatch, errors, lastRows);
+        var scanner = new ExportScanner(fileName, catalog, siteZone, onBatch, errors, lastRows);
         using var reader = CsvReader.Create(stream, ExportScanner.Options(scanner.OnMalformed), leaveOpen: true);
         return scanner.Run(reader);
     }

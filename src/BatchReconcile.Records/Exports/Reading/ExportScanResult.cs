@@ -1,6 +1,6 @@
 namespace BatchReconcile.Records.Exports.Reading;
 
-/// <summary>The outcome of a streaming scan of one export (<see cref="ExportReader.Scan(string, string, BatchReconcile.Records.Definitions.ProcessCatalog, Action{BatchRecord})"/>).</summary>
+/// <summary>The outcome of a streaming scan of one export (<see cref="ExportReader.Scan(string, string, BatchReconcile.Records.Definitions.ProcessCatalog, TimeZoneInfo, Action{BatchRecord})"/>).</summary>
 /// <param name="Errors">Every problem found (capped, with a last "... and N more" entry). When there is
 /// any, the file is rejected as a whole, including batches already handed to the callback.</param>
 /// <param name="BatchesDelivered">How many batches were handed to the callback.</param>

@@ -15,6 +15,7 @@ namespace BatchReconcile.Records.Exports.Reading;
 internal sealed class ExportScanner(
     string fileName,
     ProcessCatalog catalog,
+    TimeZoneInfo siteZone,
     Action<BatchRecord> onBatch,
     ExportErrorList errors,
     Dictionary<string, long>? lastRowOfBatch)
@@ -225,22 +226,30 @@ internal sealed class ExportScanner(
             else
             {
                 versionOk = false;
-                Error(ExportColumns.RecipeVersion, versionText, "recipe_version must be a whole number such as 2 (or empty for the newest version)");
+                Error(ExportColumns.RecipeVersion, versionText, "recipe_version must be a whole number such as 2 (or empty: then the version in effect on the batch's date is used)");
             }
         }
 
+        // recipe: the version named on the row; recipeCode: the code as the definitions spell it, also
+        // for a row without a version, whose recipe is chosen when the batch is complete (Close).
         Recipe? recipe = null;
+        string? recipeCode = null;
         if (recipeText.Length == 0)
         {
             Error(ExportColumns.Recipe, "", "recipe is required on every row");
         }
-        else if (catalog.FindRecipe(recipeText) is null)
+        else if (!catalog.HasRecipe(recipeText))
         {
             Error(ExportColumns.Recipe, recipeText, $"unknown recipe '{recipeText}'; it is not in the process definitions{Known(catalog.Recipes.Select(r => r.Code).Distinct(StringComparer.OrdinalIgnoreCase))}");
         }
-        else if (versionOk)
+        else if (versionGiven is null)
         {
-            recipe = catalog.FindRecipe(recipeText, versionGiven);
+            recipeCode = versionOk ? catalog.NewestRecipe(recipeText)!.Code : null;
+        }
+        else
+        {
+            recipe = catalog.FindRecipe(recipeText, versionGiven.Value);
+            recipeCode = recipe?.Code;
             if (recipe is null)
             {
                 var versions = catalog.Recipes
@@ -253,6 +262,7 @@ internal sealed class ExportScanner(
         // step
         var stepText = Field(ExportColumns.Step);
         RecipeStep? step = null;
+        var checkStepLater = false;
         if (stepText.Length == 0)
         {
             Error(ExportColumns.Step, "", "step is required on every row");
@@ -263,6 +273,19 @@ internal sealed class ExportScanner(
             if (step is null)
             {
                 Error(ExportColumns.Step, stepText, Invariant($"recipe {recipe.Code} version {recipe.Version} has no step '{stepText}' (steps: {string.Join(", ", recipe.Steps.Select(s => s.Code))})"));
+            }
+        }
+        else if (recipeCode is not null)
+        {
+            // Checked against the batch's version once it is chosen; a step of no version at all is wrong already.
+            var versions = catalog.Recipes.Where(r => string.Equals(r.Code, recipeCode, StringComparison.Ordinal)).ToList();
+            if (!versions.Any(r => r.FindStep(stepText) is not null))
+            {
+                Error(ExportColumns.Step, stepText, Invariant($"recipe {recipeCode} has no step '{stepText}' in any version (steps: {string.Join(", ", versions.SelectMany(r => r.Steps).Select(s => s.Code).Distinct(StringComparer.Ordinal))})"));
+            }
+            else
+            {
+                checkStepLater = true;
             }
         }
 
@@ -420,6 +443,29 @@ internal sealed class ExportScanner(
             return;
         }
 
+        if (recordedAt is { } recorded)
+        {
+            batch.Recorded(recorded);
+        }
+
+        if (recipeCode is not null)
+        {
+            if (batch.RecipeCode is null)
+            {
+                batch.SetRecipeCode(recipeCode, line);
+            }
+            else if (!string.Equals(batch.RecipeCode, recipeCode, StringComparison.Ordinal) && (recipe is null || batch.Recipe is null))
+            {
+                Error(ExportColumns.Recipe, recipeText,
+                    Invariant($"batch {batchId} is recorded with recipe {batch.RecipeCode} on line {batch.RecipeCodeLine}; this row says {recipeCode}, and a batch has one recipe"));
+            }
+
+            if (checkStepLater)
+            {
+                batch.UnversionedSteps.Add((line, stepText));
+            }
+        }
+
         if (recipe is not null)
         {
             if (batch.Recipe is null)
@@ -457,9 +503,9 @@ internal sealed class ExportScanner(
             batch.Rows.Add(new RecordRow(
                 line,
                 batchId,
-                recipe!.Code,
+                recipeCode!,
                 versionGiven,
-                step!.Code,
+                step?.Code ?? stepText,
                 entry!.Value,
                 material?.Code,
                 streamText.Length > 0 ? streamText : null,
@@ -518,17 +564,63 @@ internal sealed class ExportScanner(
                 $"no row of step {step} in batch {batch.Id} has the stream '{stream}'; an analysis describes a stream (waste, product ...) of its own step");
         }
 
+        var chosen = ChooseRecipe(batch);
+        if (chosen is { } c)
+        {
+            foreach (var (line, step) in batch.UnversionedSteps)
+            {
+                if (c.Recipe.FindStep(step) is null)
+                {
+                    errors.Add(line, ExportColumns.Step, step, Invariant(
+                        $"recipe {c.Recipe.Code} version {c.Recipe.Version} ({Chosen(c.Source, c.Date)}) has no step '{step}' (steps: {string.Join(", ", c.Recipe.Steps.Select(s => s.Code))}); give the batch's recipe_version"));
+                }
+            }
+        }
+
         if (batch.Rows is { } rows)
         {
             _rowsHeld -= rows.Count;
             if (errors.Count == 0)
             {
-                var recipe = batch.Recipe ?? throw new InvalidOperationException($"Batch {batch.Id} has rows and no errors but no recipe.");
-                onBatch(new BatchRecord(batch.Id, recipe.Code, recipe.Version, rows, _header!.Warnings));
+                var (recipe, source, date) = chosen ?? throw new InvalidOperationException($"Batch {batch.Id} has rows and no errors but no recipe.");
+
+                // Rows without a version carry the step as written until now; spell it as the chosen version does.
+                var spelled = rows.Select(r => r.RecipeVersion is null ? r with { Step = recipe.FindStep(r.Step)!.Code } : r).ToList();
+                onBatch(new BatchRecord(batch.Id, recipe.Code, recipe.Version, source, date, spelled, _header!.Warnings));
                 _delivered++;
             }
         }
     }
+
+    /// <summary>
+    /// The batch's recipe version and how it was chosen: the one its rows name; else the one in effect on
+    /// the local calendar date (site time zone) of its earliest recorded_at; else, stated, the newest.
+    /// Null when no row named a known recipe (already an error).
+    /// </summary>
+    private (Recipe Recipe, RecipeVersionSource Source, DateOnly? Date)? ChooseRecipe(OpenBatch batch)
+    {
+        DateOnly? date = batch.FirstRecordedAt is { } first ? DateOnly.FromDateTime(TimeZoneInfo.ConvertTime(first, siteZone).DateTime) : null;
+        if (batch.Recipe is { } named)
+        {
+            return (named, RecipeVersionSource.Export, date);
+        }
+
+        if (batch.RecipeCode is not { } code)
+        {
+            return null;
+        }
+
+        return catalog.RecipeInEffect(code, date) is { } inEffect
+            ? (inEffect, RecipeVersionSource.EffectiveDate, date)
+            : (catalog.NewestRecipe(code)!, RecipeVersionSource.Newest, date);
+    }
+
+    private static string Chosen(RecipeVersionSource source, DateOnly? date) => source switch
+    {
+        RecipeVersionSource.Export => "named by the export",
+        RecipeVersionSource.EffectiveDate => Invariant($"in effect on {date:yyyy-MM-dd}, the local date of the batch's first recorded time"),
+        _ => "the newest, as no effectiveFrom date decides the version",
+    };
 
     private void DropRowsOnceRejected()
     {

@@ -13,10 +13,21 @@ internal sealed class OpenBatch(string id, int firstLine)
 
     public int FirstLine { get; } = firstLine;
 
-    /// <summary>The recipe of the first row that named a known one, and that row's line.</summary>
+    /// <summary>The recipe of the first row that named a known one with its version, and that row's line.</summary>
     public Recipe? Recipe { get; private set; }
 
     public int RecipeLine { get; private set; }
+
+    /// <summary>The recipe code of the first row that named a known recipe (with or without a version), and that row's line.</summary>
+    public string? RecipeCode { get; private set; }
+
+    public int RecipeCodeLine { get; private set; }
+
+    /// <summary>The earliest recorded_at of the batch's rows (by instant); null while none has one.</summary>
+    public DateTimeOffset? FirstRecordedAt { get; private set; }
+
+    /// <summary>Rows that gave no recipe_version, with the step as written: their step is checked once the batch's version is chosen.</summary>
+    public List<(int Line, string Step)> UnversionedSteps { get; } = [];
 
     /// <summary>Null once the file has an error: rows of a rejected file are not kept.</summary>
     public List<RecordRow>? Rows { get; private set; } = [];
@@ -25,6 +36,20 @@ internal sealed class OpenBatch(string id, int firstLine)
     {
         Recipe = recipe;
         RecipeLine = line;
+    }
+
+    public void SetRecipeCode(string code, int line)
+    {
+        RecipeCode = code;
+        RecipeCodeLine = line;
+    }
+
+    public void Recorded(DateTimeOffset at)
+    {
+        if (FirstRecordedAt is null || at < FirstRecordedAt)
+        {
+            FirstRecordedAt = at;
+        }
     }
 
     public void DropRows() => Rows = null;
