@@ -100,7 +100,7 @@ internal static class LadderChart
     public static bool NeedsReactionPanel(StepOutcome outcome, IReadOnlyCollection<FlagCode> flags)
     {
         ArgumentNullException.ThrowIfNull(outcome);
-        if (!(outcome.MassInKg > 0))
+        if (!(outcome.MassInKg > 0) || outcome.Ladder.Count == 0)
         {
             return false;
         }
