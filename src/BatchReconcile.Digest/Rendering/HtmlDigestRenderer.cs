@@ -215,14 +215,13 @@ public static class HtmlDigestRenderer
                 .Select(e => e.Code).Distinct().ToList();
             html.Append("<figure>\n").Append(LadderChart.Draw(step, flagCodes))
                 .Append("\n<figcaption>Loss ladder: from all charged mass down to isolated product, each rung in kg and in % of the charged mass. ")
-                .Append("A dashed outline is a negative rung (yield above theory); a dark bar marked \"flag:\" is a rung a flag of this step is about.</figcaption>\n</figure>\n");
+                .Append("A dashed outline is a negative rung (yield above theory); a dark bar marked \"flag:\" is a rung a flag of this step is about, ")
+                .Append("drawn at least ").Append(DigestText.Number(LadderChart.MinFlaggedPx, 0)).Append(" px wide with its value beside it.</figcaption>\n</figure>\n");
             if (LadderChart.DrawReaction(step, flagCodes) is { } reaction)
             {
                 html.Append("<figure class=\"reaction-ladder\">\n").Append(reaction)
                     .Append("\n<figcaption>The same ladder without solvents, auxiliaries and recovered streams, on its own scale from the reactants charged, ")
-                    .Append("so that the rungs of the reaction and the yield can be read (% still of all charged mass). ")
-                    .Append("A flagged rung narrower than ").Append(DigestText.Number(LadderChart.MinFlaggedPx, 0))
-                    .Append(" px is drawn that wide; its value is printed beside it.</figcaption>\n</figure>\n");
+                    .Append("so that the rungs of the reaction and the yield can be read (% still of all charged mass).</figcaption>\n</figure>\n");
             }
 
             var closure = ClosureChart.Draw(step);
