@@ -25,22 +25,27 @@ public sealed class DigestService(
     /// <summary>How often the service looks for stale digests: one indexed query that returns only stale days.</summary>
     public static readonly TimeSpan StaleCheckInterval = TimeSpan.FromSeconds(2);
 
+    /// <summary>After a failed pass (a full disk, a folder not writable) the next one waits this long, so the log is not flooded.</summary>
+    public static readonly TimeSpan RetryAfterFailure = TimeSpan.FromMinutes(1);
+
     protected override async Task ExecuteAsync(CancellationToken stoppingToken)
     {
         while (!stoppingToken.IsCancellationRequested)
         {
             var now = time.GetUtcNow();
+            var interval = StaleCheckInterval;
             try
             {
                 Pass(now);
             }
             catch (Exception e) when (e is IOException or UnauthorizedAccessException or StoreException)
             {
-                logger.LogError(e, "Writing a due or stale digest failed; it is tried again at the next pass");
+                logger.LogError(e, "Writing a due or stale digest failed; it is tried again in {Minutes} minute(s) or at the next due time", RetryAfterFailure.TotalMinutes);
+                interval = RetryAfterFailure;
             }
 
             var untilDue = schedule.NextDue(now) - time.GetUtcNow();
-            var wait = untilDue < StaleCheckInterval ? untilDue : StaleCheckInterval;
+            var wait = untilDue < interval ? untilDue : interval;
             try
             {
                 await Task.Delay(wait > TimeSpan.Zero ? wait : TimeSpan.FromSeconds(1), time, stoppingToken);
