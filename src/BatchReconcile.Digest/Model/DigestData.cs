@@ -35,6 +35,15 @@ public sealed record DigestData(
     /// <summary>The day's batches of recipes with more than one step, with their route yields; empty when none.</summary>
     public IReadOnlyList<BatchRouteYield> RouteYields { get; init; } = [];
 
+    /// <summary>Set when this digest replaces an earlier issue of the day (the renderers say so at the top).</summary>
+    public DigestIssue? Reissue { get; init; }
+
+    /// <summary>
+    /// A digest asked for before the day ended: titled provisional, written under its own file names and never
+    /// recorded as the day's digest. <see cref="Reissue"/> is then null.
+    /// </summary>
+    public bool Provisional { get; init; }
+
     /// <summary>The day's flags by severity, counted from <see cref="Exceptions"/> so the two never disagree.</summary>
     public SeverityCounts FlagCounts => new(
         Exceptions.Count(e => e.Severity == FlagSeverity.Critical),

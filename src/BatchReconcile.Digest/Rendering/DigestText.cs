@@ -9,6 +9,33 @@ public static class DigestText
 {
     public const string Title = "Daily exception digest";
 
+    public const string ProvisionalTitle = "Provisional daily exception digest";
+
+    /// <summary>The digest's title: provisional when asked for before the day ended.</summary>
+    public static string TitleOf(DigestData data) => data.Provisional ? ProvisionalTitle : Title;
+
+    /// <summary>
+    /// "Issue 2: replaces issue 1 written 2026-11-25 07:30 UTC+01:00 (kept as digest-2026-11-24-site.1.html). Why: 2 batches
+    /// arrived since." Null for a first issue.
+    /// </summary>
+    public static string? ReissueSentence(DigestData data, string keptName)
+    {
+        ArgumentNullException.ThrowIfNull(data);
+        return data.Reissue is not { } issue
+            ? null
+            : $"Issue {Count(issue.Number)}: replaces issue {Count(issue.Replaces)} written {Moment(issue.PreviousWrittenAt)} (kept as {keptName}). Why: {issue.Reason}.";
+    }
+
+    /// <summary>What a provisional digest says under its title; null for the day's digest.</summary>
+    public static string? ProvisionalSentence(DigestData data)
+    {
+        ArgumentNullException.ThrowIfNull(data);
+        return data.Provisional
+            ? $"Provisional: written {Moment(data.GeneratedAt)}, before the production day ended ({Moment(data.Day.End)}). "
+                + "It is not the day's digest: batches and review decisions may still come, and the day's digest is written when it falls due."
+            : null;
+    }
+
     /// <summary>The cautions closing every digest.</summary>
     public static IReadOnlyList<string> Cautions { get; } =
     [
@@ -52,12 +79,24 @@ public static class DigestText
     public static string WithUnit(double? value, string unit) => value switch
     {
         null => "n/a",
-        { } v when unit == "%" => Pct(v) + " %",
-        { } v when unit == "kg" => Kg(v, KgDecimals(v)) + " kg",
-        { } v when unit == "equiv" => Fixed(v, 2) + " equiv",
-        { } v when unit.Length == 0 => Fixed(v, 2),
-        { } v => Fixed(v, 2) + " " + unit,
+        { } v when unit == "%" => Fixed(v, ValueDecimals(v, unit)) + " %",
+        { } v when unit.Length == 0 => Fixed(v, ValueDecimals(v, unit)),
+        { } v => Fixed(v, ValueDecimals(v, unit)) + " " + unit,
     };
+
+    /// <summary>Decimals a flag's value is shown with: 0.1 for %, <see cref="KgDecimals"/> for kg, 0.01 otherwise.</summary>
+    public static int ValueDecimals(double value, string unit) => unit switch
+    {
+        "%" => 1,
+        "kg" => KgDecimals(value),
+        _ => 2,
+    };
+
+    /// <summary>
+    /// A flag's value rounded as the page shows it, as a number (the CSV writes it in its shortest form, so 76.54999999999995 %
+    /// becomes 76.5, and 90.0 becomes 90). Half away from zero, and never -0.
+    /// </summary>
+    public static double? Rounded(double? value, string unit) => value is { } v ? RoundShown(v, ValueDecimals(v, unit)) : null;
 
     /// <summary>"87.2 % against 90.0 %", or the one that is known.</summary>
     public static string MeasuredAgainstLimit(DigestException e) => (e.Measured, e.Limit) switch
@@ -79,14 +118,12 @@ public static class DigestText
     public static string Count(int n) => n.ToString(Inv);
 
     // Rounds first so that -0.004 prints as 0.00, not -0.00.
-    private static string Fixed(double value, int decimals)
+    private static string Fixed(double value, int decimals) =>
+        RoundShown(value, decimals).ToString("F" + decimals.ToString(Inv), Inv);
+
+    private static double RoundShown(double value, int decimals)
     {
         var rounded = Math.Round(value, decimals, MidpointRounding.AwayFromZero);
-        if (rounded == 0)
-        {
-            rounded = 0;
-        }
-
-        return rounded.ToString("F" + decimals.ToString(Inv), Inv);
+        return rounded == 0 ? 0 : rounded;
     }
 }

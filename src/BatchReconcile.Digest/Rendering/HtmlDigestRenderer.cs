@@ -1,5 +1,6 @@
 using System.Net;
 using System.Text;
+using BatchReconcile.Digest.Files;
 using BatchReconcile.Digest.Model;
 using BatchReconcile.Digest.Rendering.Charts;
 using BatchReconcile.Records.Definitions;
@@ -43,6 +44,7 @@ public static class HtmlDigestRenderer
         .sev-major::before { content: "\25A0\25A0\25A1"; }
         .sev-minor::before { content: "\25A0\25A1\25A1"; }
         .none { color: #555; font-style: italic; }
+        .notice { margin: .3rem 0 .8rem; padding: .4rem .6rem; border-left: 4px solid #3d5a80; background: #eef1f6; }
         .step { margin-top: 1rem; padding-top: .2rem; border-top: 1px solid #d9d9d9; }
         figure { margin: .4rem 0 .8rem; break-inside: avoid; page-break-inside: avoid; }
         figcaption { font-size: 9pt; color: #555; margin-top: .2rem; }
@@ -75,7 +77,7 @@ public static class HtmlDigestRenderer
         var day = DigestText.Date(data.Day.Day);
         html.Append("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n")
             .Append("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n")
-            .Append("<title>").Append(H($"{DigestText.Title} {day}, {data.SiteName}")).Append("</title>\n")
+            .Append("<title>").Append(H($"{DigestText.TitleOf(data)} {day}, {data.SiteName}")).Append("</title>\n")
             .Append("<style>\n").Append(Style).Append("\n</style>\n</head>\n<body>\n");
 
         Summary(html, data);
@@ -94,7 +96,18 @@ public static class HtmlDigestRenderer
     private static void Summary(StringBuilder html, DigestData data)
     {
         var counts = data.FlagCounts;
-        html.Append("<header id=\"summary\">\n<h1>").Append(DigestText.Title).Append("</h1>\n")
+        html.Append("<header id=\"summary\">\n<h1>").Append(DigestText.TitleOf(data)).Append("</h1>\n");
+        if (DigestText.ReissueSentence(data, DigestFileNames.For(data.Day.Day, data.SiteName).Numbered(data.Reissue?.Replaces ?? 1).Html) is { } reissue)
+        {
+            html.Append("<p class=\"notice\" id=\"reissue\">").Append(H(reissue)).Append("</p>\n");
+        }
+
+        if (DigestText.ProvisionalSentence(data) is { } provisional)
+        {
+            html.Append("<p class=\"notice\" id=\"provisional\">").Append(H(provisional)).Append("</p>\n");
+        }
+
+        html
             .Append("<p class=\"lead\">Production day <strong>").Append(DigestText.Date(data.Day.Day)).Append("</strong> at <strong>")
             .Append(H(data.SiteName)).Append("</strong></p>\n<dl class=\"facts\">\n");
         Fact(html, "Day runs", H(DigestText.DayBounds(data.Day)));
@@ -123,7 +136,7 @@ public static class HtmlDigestRenderer
                     .Append("<td class=\"code\">").Append(item.Code.ToText()).Append("</td>")
                     .Append("<td>").Append(DigestText.Date(item.Day)).Append("</td>")
                     .Append("<td class=\"num\">").Append(DigestText.AgeDays(item.AgeDays)).Append("</td>")
-                    .Append("<td>").Append(H(item.Review.ToText())).Append("</td></tr>\n");
+                    .Append("<td>").Append(H(item.Review.Describe())).Append("</td></tr>\n");
             }
 
             html.Append("</tbody>\n</table>\n");
@@ -157,7 +170,7 @@ public static class HtmlDigestRenderer
                 .Append("<td class=\"code\">").Append(H(DigestText.FlagName(e.Code, e.Subject))).Append("</td>")
                 .Append("<td class=\"num measure\">").Append(H(DigestText.MeasuredAgainstLimit(e))).Append("</td>")
                 .Append("<td class=\"msg\">").Append(H(e.Message)).Append("</td>")
-                .Append("<td>").Append(H(e.Review.ToText())).Append("</td></tr>\n");
+                .Append("<td class=\"review\">").Append(H(e.Review.Describe())).Append("</td></tr>\n");
         }
 
         html.Append("</tbody>\n</table>\n</section>\n");
@@ -203,9 +216,19 @@ public static class HtmlDigestRenderer
 
             html.Append("</dl>\n</header>\n");
 
-            html.Append("<figure>\n").Append(LadderChart.Draw(step))
+            var flagCodes = data.Exceptions
+                .Where(e => e.BatchId == step.BatchId && e.Revision == step.Revision && e.Step == step.Step)
+                .Select(e => e.Code).Distinct().ToList();
+            html.Append("<figure>\n").Append(LadderChart.Draw(step, flagCodes))
                 .Append("\n<figcaption>Loss ladder: from all charged mass down to isolated product, each rung in kg and in % of the charged mass. ")
-                .Append("A dashed outline is a negative rung (yield above theory).</figcaption>\n</figure>\n");
+                .Append("A dashed outline is a negative rung (yield above theory); a dark bar marked \"flag:\" is a rung a flag of this step is about, ")
+                .Append("drawn at least ").Append(DigestText.Number(LadderChart.MinFlaggedPx, 0)).Append(" px wide with its value beside it.</figcaption>\n</figure>\n");
+            if (LadderChart.DrawReaction(step, flagCodes) is { } reaction)
+            {
+                html.Append("<figure class=\"reaction-ladder\">\n").Append(reaction)
+                    .Append("\n<figcaption>The same ladder without solvents, auxiliaries and recovered streams, on its own scale from the reactants charged, ")
+                    .Append("so that the rungs of the reaction and the yield can be read (% still of all charged mass).</figcaption>\n</figure>\n");
+            }
 
             var closure = ClosureChart.Draw(step);
             if (closure is null)

@@ -1,4 +1,5 @@
 using System.Text;
+using BatchReconcile.Digest.Files;
 using BatchReconcile.Digest.Model;
 using BatchReconcile.Digest.Rendering.Charts;
 using BatchReconcile.Records.Definitions;
@@ -17,7 +18,17 @@ public static class MarkdownDigestRenderer
         var md = new StringBuilder(16 * 1024);
         var counts = data.FlagCounts;
 
-        md.Append("# ").Append(DigestText.Title).Append(": ").Append(DigestText.Date(data.Day.Day)).Append(", ").Append(E(data.SiteName)).Append("\n\n");
+        md.Append("# ").Append(DigestText.TitleOf(data)).Append(": ").Append(DigestText.Date(data.Day.Day)).Append(", ").Append(E(data.SiteName)).Append("\n\n");
+        if (DigestText.ReissueSentence(data, DigestFileNames.For(data.Day.Day, data.SiteName).Numbered(data.Reissue?.Replaces ?? 1).Markdown) is { } reissue)
+        {
+            md.Append("> ").Append(E(reissue)).Append("\n\n");
+        }
+
+        if (DigestText.ProvisionalSentence(data) is { } provisional)
+        {
+            md.Append("> ").Append(E(provisional)).Append("\n\n");
+        }
+
         md.Append("- Day runs: ").Append(E(DigestText.DayBounds(data.Day))).Append('\n')
             .Append("- Batches completed: ").Append(DigestText.Count(data.BatchesCompleted)).Append('\n')
             .Append("- Steps reconciled: ").Append(DigestText.Count(data.StepsReconciled)).Append('\n')
@@ -37,7 +48,7 @@ public static class MarkdownDigestRenderer
             foreach (var item in HtmlDigestRenderer.OpenOrder(data.OpenEarlier))
             {
                 Row(md, item.FlagId.ToString(System.Globalization.CultureInfo.InvariantCulture), DigestText.Severity(item.Severity), E(item.BatchId), E(item.Step),
-                    item.Code.ToText(), DigestText.Date(item.Day), DigestText.AgeDays(item.AgeDays), item.Review.ToText());
+                    item.Code.ToText(), DigestText.Date(item.Day), DigestText.AgeDays(item.AgeDays), E(item.Review.Describe()));
             }
 
             if (data.OpenEarlierCount > data.OpenEarlier.Count)
@@ -61,7 +72,7 @@ public static class MarkdownDigestRenderer
             foreach (var e in ExceptionOrder.Sort(data.Exceptions))
             {
                 Row(md, DigestText.Severity(e.Severity), $"{E(e.BatchId)} rev {e.Revision}", E(e.Recipe), E(e.Step),
-                    E(DigestText.FlagName(e.Code, e.Subject)), E(DigestText.MeasuredAgainstLimit(e)), E(e.Message), e.Review.ToText());
+                    E(DigestText.FlagName(e.Code, e.Subject)), E(DigestText.MeasuredAgainstLimit(e)), E(e.Message), E(e.Review.Describe()));
             }
 
             md.Append('\n');

@@ -16,6 +16,7 @@ public static class Migrations
         new(5, "raw rows: one record per batch revision (header once, lines compressed) instead of one per row", V5RawRowsPerRevision, RawRowsRepack.Run, V5Finish),
         new(6, "recipe version source per batch revision; the limits and settings that decided each step's flags, per step result", V6DecidingLimits, RecipeVersionSourceBackfill.Run),
         new(7, "route yield and intermediate links per batch revision", V7RouteYield),
+        new(8, "digest freshness: a change count per production day kept by triggers, and what each digest write covered", V8DigestFreshness),
     ];
 
     public static int Latest => All[^1].Version;
@@ -291,6 +292,72 @@ public static class Migrations
 
     /// <summary>The note migration 7 gives revisions stored before it.</summary>
     public const string RouteNotComputedBefore7 = "not computed: stored before route yields were kept (schema version 7)";
+
+    // What a day's digest shows changes when a batch revision is stored for the day, when a revision of
+    // the day is replaced by one of another day, and when a review decision is made on a current flag
+    // of the day. Triggers count these per day (the ingest path runs no extra statement of its own);
+    // each digest write records the counts it was gathered at, and day_change.digested their sum for
+    // the latest write. A day whose counts have grown past it is stale, found through a partial index
+    // that holds only stale days. Counts of rows written before this migration are rebuilt from the
+    // store's times (a decision's count is one per reviewed flag: only the last decision's time is kept).
+    private const string V8DigestFreshness = """
+        CREATE TABLE day_change (
+            day       TEXT    PRIMARY KEY CHECK (day GLOB '[0-9][0-9][0-9][0-9]-[0-9][0-9]-[0-9][0-9]'),
+            batches   INTEGER NOT NULL DEFAULT 0 CHECK (batches >= 0),
+            revisions INTEGER NOT NULL DEFAULT 0 CHECK (revisions >= 0),
+            withdrawn INTEGER NOT NULL DEFAULT 0 CHECK (withdrawn >= 0),
+            reviews   INTEGER NOT NULL DEFAULT 0 CHECK (reviews >= 0),
+            digested  INTEGER CHECK (digested >= 0)
+        ) WITHOUT ROWID;
+        CREATE INDEX ix_day_change_stale ON day_change (day)
+            WHERE digested IS NOT NULL AND batches + revisions + withdrawn + reviews > digested;
+
+        CREATE TRIGGER day_change_revision AFTER INSERT ON batch_revision
+        BEGIN
+            INSERT INTO day_change (day, batches, revisions) VALUES (NEW.production_day, NEW.revision = 1, NEW.revision > 1)
+            ON CONFLICT (day) DO UPDATE SET batches = batches + excluded.batches, revisions = revisions + excluded.revisions;
+        END;
+        CREATE TRIGGER day_change_withdrawn AFTER UPDATE OF superseded_by ON batch_revision
+        WHEN OLD.superseded_by IS NULL AND NEW.superseded_by IS NOT NULL
+            AND (SELECT n.production_day FROM batch_revision n WHERE n.id = NEW.superseded_by) IS NOT NEW.production_day
+        BEGIN
+            INSERT INTO day_change (day, withdrawn) VALUES (NEW.production_day, 1)
+            ON CONFLICT (day) DO UPDATE SET withdrawn = withdrawn + 1;
+        END;
+        CREATE TRIGGER day_change_review AFTER UPDATE OF state, outcome, deviation_ref, reviewed_by ON flag
+        WHEN NEW.is_current = 1 AND (OLD.state IS NOT NEW.state OR OLD.outcome IS NOT NEW.outcome
+            OR OLD.deviation_ref IS NOT NEW.deviation_ref OR OLD.reviewed_by IS NOT NEW.reviewed_by)
+        BEGIN
+            INSERT INTO day_change (day, reviews) VALUES (NEW.production_day, 1)
+            ON CONFLICT (day) DO UPDATE SET reviews = reviews + 1;
+        END;
+
+        ALTER TABLE digest ADD COLUMN seen_batches INTEGER;
+        ALTER TABLE digest ADD COLUMN seen_revisions INTEGER;
+        ALTER TABLE digest ADD COLUMN seen_withdrawn INTEGER;
+        ALTER TABLE digest ADD COLUMN seen_reviews INTEGER;
+        ALTER TABLE digest ADD COLUMN reason TEXT;
+
+        INSERT INTO day_change (day, batches, revisions)
+            SELECT production_day, sum(revision = 1), sum(revision > 1) FROM batch_revision GROUP BY production_day;
+        INSERT OR IGNORE INTO day_change (day) SELECT DISTINCT day FROM digest;
+        UPDATE day_change SET
+            withdrawn = (SELECT count(*) FROM batch_revision o JOIN batch_revision n ON n.id = o.superseded_by
+                         WHERE o.production_day = day_change.day AND n.production_day <> o.production_day),
+            reviews   = (SELECT count(*) FROM flag f
+                         WHERE f.production_day = day_change.day AND f.is_current = 1 AND f.reviewed_at IS NOT NULL);
+        UPDATE digest SET
+            seen_batches   = (SELECT count(*) FROM batch_revision r
+                              WHERE r.production_day = digest.day AND r.revision = 1 AND r.stored_at <= digest.written_at),
+            seen_revisions = (SELECT count(*) FROM batch_revision r
+                              WHERE r.production_day = digest.day AND r.revision > 1 AND r.stored_at <= digest.written_at),
+            seen_withdrawn = (SELECT count(*) FROM batch_revision o JOIN batch_revision n ON n.id = o.superseded_by
+                              WHERE o.production_day = digest.day AND n.production_day <> o.production_day AND o.superseded_at <= digest.written_at),
+            seen_reviews   = (SELECT count(*) FROM flag f
+                              WHERE f.production_day = digest.day AND f.is_current = 1 AND f.reviewed_at <= digest.written_at);
+        UPDATE day_change SET digested =
+            (SELECT d.seen_batches + d.seen_revisions + d.seen_withdrawn + d.seen_reviews FROM digest d WHERE d.day = day_change.day ORDER BY d.id DESC LIMIT 1);
+        """;
 
     private const string GenesisHash = "0000000000000000000000000000000000000000000000000000000000000000";
 }

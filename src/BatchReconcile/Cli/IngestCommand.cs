@@ -1,4 +1,5 @@
 using System.CommandLine;
+using BatchReconcile.Digests;
 using BatchReconcile.Hosting;
 using BatchReconcile.Intake.Inbox;
 using BatchReconcile.Pipeline;
@@ -25,6 +26,8 @@ public static class IngestCommand
             var pipeline = host.Services.GetRequiredService<IngestPipeline>();
             var asJson = parse.GetValue(json);
             var outcomes = Run(pipeline, files, intake.GroupCommitMaxFiles, asJson ? stderr : stdout, showProgress: !asJson && !Console.IsOutputRedirected);
+            // A file for a day whose digest exists makes that digest stale: it is rewritten now, not at the service's next pass.
+            var rewritten = host.Services.GetRequiredService<DigestWriter>().RewriteStale();
             if (asJson)
             {
                 JsonOutput.Write(stdout, outcomes.Select(ToJson).ToList());
@@ -32,6 +35,13 @@ public static class IngestCommand
             else
             {
                 WriteSummary(stdout, outcomes);
+            }
+
+            foreach (var digest in rewritten)
+            {
+                // With --json stdout holds the one JSON document only, so the note goes to stderr.
+                (asJson ? stderr : stdout).WriteLine(
+                    $"digest of {digest.Day:yyyy-MM-dd} rewritten as issue {digest.Issue} ({digest.Reason}): {digest.Files[0]}");
             }
 
             return outcomes.Any(o => o.Outcome == IngestOutcome.Quarantined) ? ExitCodes.CompletedWithQuarantine : ExitCodes.Success;

@@ -7,8 +7,10 @@ namespace BatchReconcile.Digests;
 
 /// <summary>
 /// Part of <c>run</c>: writes each production day's digest once it falls due, and on start the digests
-/// missed while the service was down (at most <c>Site:DigestCatchUpDays</c> days back). A day with a
-/// digest already is never written again by the schedule; <c>digest --day</c> rewrites on request.
+/// missed while the service was down (at most <c>Site:DigestCatchUpDays</c> days back). Between due times it
+/// looks every <see cref="StaleCheckInterval"/> for days whose digest no longer shows what the store holds (a
+/// late batch, a re-export, a review decision) and rewrites them (<see cref="DigestWriter.RewriteStale"/>);
+/// <c>digest --day</c> rewrites on request.
 /// </summary>
 public sealed class DigestService(
     DigestWriter writer,
@@ -20,21 +22,30 @@ public sealed class DigestService(
     /// <summary>The name recorded for writes made by the schedule.</summary>
     public const string By = "system";
 
+    /// <summary>How often the service looks for stale digests: one indexed query that returns only stale days.</summary>
+    public static readonly TimeSpan StaleCheckInterval = TimeSpan.FromSeconds(2);
+
+    /// <summary>After a failed pass (a full disk, a folder not writable) the next one waits this long, so the log is not flooded.</summary>
+    public static readonly TimeSpan RetryAfterFailure = TimeSpan.FromMinutes(1);
+
     protected override async Task ExecuteAsync(CancellationToken stoppingToken)
     {
         while (!stoppingToken.IsCancellationRequested)
         {
             var now = time.GetUtcNow();
+            var interval = StaleCheckInterval;
             try
             {
-                WriteDue(now);
+                Pass(now);
             }
             catch (Exception e) when (e is IOException or UnauthorizedAccessException or StoreException)
             {
-                logger.LogError(e, "Writing a due digest failed; it is tried again at the next due time");
+                logger.LogError(e, "Writing a due or stale digest failed; it is tried again in {Minutes} minute(s) or at the next due time", RetryAfterFailure.TotalMinutes);
+                interval = RetryAfterFailure;
             }
 
-            var wait = schedule.NextDue(now) - time.GetUtcNow();
+            var untilDue = schedule.NextDue(now) - time.GetUtcNow();
+            var wait = untilDue < interval ? untilDue : interval;
             try
             {
                 await Task.Delay(wait > TimeSpan.Zero ? wait : TimeSpan.FromSeconds(1), time, stoppingToken);
@@ -45,6 +56,9 @@ public sealed class DigestService(
             }
         }
     }
+
+    /// <summary>One pass of the service: the digests due at <paramref name="now"/>, then the stale ones rewritten.</summary>
+    public IReadOnlyList<DigestWriteResult> Pass(DateTimeOffset now) => [.. WriteDue(now), .. writer.RewriteStale()];
 
     /// <summary>Writes every digest due at <paramref name="now"/> and not yet written, oldest first.</summary>
     public IReadOnlyList<DigestWriteResult> WriteDue(DateTimeOffset now)

@@ -99,6 +99,38 @@ public sealed class DemoDigestPageTests(ChromiumFixture chromium, DemoDigest dig
         }
     }
 
+    // sample-data/README.md: on the 27th KB3-NB-0167 S1 has yield-high, a toluene-heavy step (the solvent is most
+    // of the charge), so its yield rungs are slivers on the full ladder's scale. The rung a flag is about must still
+    // be a visible bar: in the ladder without solvents, dark, at least 4 px wide in the SVG's units (LadderChart),
+    // 3 px left after the page scales the 700 px chart down to the narrowest width tried here.
+    [Theory]
+    [InlineData("screen", 1280)]
+    [InlineData("screen", 800)]
+    [InlineData("print", 703)]
+    public async Task The_rung_that_raised_a_flag_is_a_visible_bar_when_the_solvent_dominates_the_step(string media, int width)
+    {
+        await using var page = await OfflinePage.OpenAsync(chromium.Browser, digest.HtmlPath, width);
+        await page.Page.EmulateMediaAsync(new PageEmulateMediaOptions { Media = media == "print" ? Media.Print : Media.Screen });
+        var panel = page.Page.Locator("svg.chart[data-panel=\"reaction\"]").Filter(new LocatorFilterOptions { HasText = "KB3-NB-0167" });
+
+        Assert.Equal(1, await panel.CountAsync());
+        var flagged = await panel.Locator("rect[data-flagged=\"true\"]").AllAsync();
+        Assert.NotEmpty(flagged);
+        foreach (var rect in flagged)
+        {
+            var box = await rect.BoundingBoxAsync();
+            var rung = await rect.GetAttributeAsync("data-rung");
+            Assert.True(await rect.IsVisibleAsync(), $"flagged rung {rung} is not visible");
+            Assert.True(box is { Width: >= 3, Height: >= 8 }, $"flagged rung {rung} is drawn {Describe(box)}");
+            Assert.Equal("#222222", await rect.GetAttributeAsync("fill"));
+        }
+
+        var labels = await panel.Locator("text").AllTextContentsAsync();
+        Assert.Contains(labels, l => l.StartsWith("flag: yield loss", StringComparison.Ordinal));
+        // The solvent rung is left out of that panel, which is what lets the others take the width.
+        Assert.Equal(0, await panel.Locator("rect[data-rung=\"auxiliaries-not-recovered\"]").CountAsync());
+    }
+
     [Fact]
     public async Task The_page_fetches_nothing_but_itself()
     {

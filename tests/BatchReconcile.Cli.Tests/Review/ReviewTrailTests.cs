@@ -140,7 +140,8 @@ public sealed class ReviewTrailTests : IDisposable
         Assert.Equal(1, Scalar("SELECT count(*) FROM audit_event WHERE kind = 'digest.rewritten'"));
         Assert.NotEqual(string.Empty, first.Stdout);
         // The log names the day in ISO form, never in a culture's date pattern (01/05/2026 is ambiguous).
-        Assert.Contains("Digest of 2026-11-25 rewritten at the request of A. Chen", second.Stderr, StringComparison.Ordinal);
+        Assert.Contains("Digest of 2026-11-25 rewritten as issue 2", second.Stderr, StringComparison.Ordinal);
+        Assert.Contains("rewritten at the request of A. Chen", second.Stderr, StringComparison.Ordinal);
     }
 
     private async Task<string> FirstFlagOf(string day)

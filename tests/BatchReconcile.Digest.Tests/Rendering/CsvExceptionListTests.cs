@@ -10,7 +10,7 @@ namespace BatchReconcile.Digest.Tests.Rendering;
 public class CsvExceptionListTests
 {
     [Fact]
-    public void Reading_the_csv_back_gives_every_flag_in_order_with_exact_numbers()
+    public void Reading_the_csv_back_gives_every_flag_in_order_with_the_numbers_as_the_page_shows_them()
     {
         var data = SeededDigest.Create();
         var csv = CsvExceptionList.Render(data);
@@ -30,11 +30,13 @@ public class CsvExceptionListTests
             Assert.Equal(e.Step, reader.GetString("step"));
             Assert.Equal(e.Code.ToText(), reader.GetString("code"));
             Assert.Equal(e.Subject ?? string.Empty, reader.GetString("subject"));
-            Assert.Equal(e.Measured, reader.Parse<double>("measured"));
-            Assert.Equal(e.Limit, reader.Parse<double>("limit"));
+            Assert.Equal(DigestText.Rounded(e.Measured, e.Unit), reader.Parse<double>("measured"));
+            Assert.Equal(DigestText.Rounded(e.Limit, e.Unit), reader.Parse<double>("limit"));
             Assert.Equal(e.Unit, reader.GetString("unit"));
             Assert.Equal(e.Message, reader.GetString("message"));
             Assert.Equal(e.Review.ToText(), reader.GetString("review_state"));
+            Assert.Equal(e.Review.DeviationRef ?? string.Empty, reader.GetString("deviation_ref"));
+            Assert.Equal(e.Review.By ?? string.Empty, reader.GetString("reviewed_by"));
         }
 
         Assert.Equal(expected.Count, i);
@@ -50,7 +52,7 @@ public class CsvExceptionListTests
         var dashed = new DigestData(data.SiteName, data.Day, data.GeneratedAt, 1, 1, 0, [],
             [new DigestException(1, FlagSeverity.Major, "-B7", 1, "PX-204", "S1", FlagCode.BalanceGap, -0.5, 1, "kg", "-1 kg", ReviewStatus.Open)], [], []);
         var line = CsvExceptionList.Render(dashed).Split("\r\n")[1];
-        Assert.Equal("1,major,\"'-B7\",1,PX-204,S1,balance-gap,,-0.5,1,kg,\"'-1 kg\",open", line);
+        Assert.Equal("1,major,\"'-B7\",1,PX-204,S1,balance-gap,,-0.5,1,kg,\"'-1 kg\",open,,", line);
     }
 
     [Fact]

@@ -109,8 +109,10 @@ public class DigestContentTests
     public void Each_flagged_step_has_a_ladder_and_a_closure_chart_and_each_recipe_step_a_yield_chart()
     {
         var charts = Html.SvgFragments(HtmlText);
-        Assert.Equal((2 * Seeded.FlaggedSteps.Count) + Seeded.Yields.Count, charts.Count);
-        Assert.Equal(Seeded.FlaggedSteps.Count, charts.Count(c => c.Contains("<title>Loss ladder of batch", StringComparison.Ordinal)));
+        // Each seeded step's solvents and recovered streams are more than half its charge, so each also has the ladder without them.
+        Assert.Equal((3 * Seeded.FlaggedSteps.Count) + Seeded.Yields.Count, charts.Count);
+        Assert.Equal(Seeded.FlaggedSteps.Count, charts.Count(c => c.Contains(" data-panel=\"all\">", StringComparison.Ordinal) && c.Contains("<title>Loss ladder of batch", StringComparison.Ordinal)));
+        Assert.Equal(Seeded.FlaggedSteps.Count, charts.Count(c => c.Contains(" data-panel=\"reaction\">", StringComparison.Ordinal) && c.Contains("without solvents", StringComparison.Ordinal)));
         Assert.Equal(Seeded.FlaggedSteps.Count, charts.Count(c => c.Contains("<title>Mass-balance closure of batch", StringComparison.Ordinal)));
         Assert.Equal(Seeded.Yields.Count, charts.Count(c => c.Contains("<title>Yields of recipe", StringComparison.Ordinal)));
     }
@@ -170,7 +172,7 @@ public class DigestContentTests
         Assert.Contains("<dt>Still open from earlier days</dt><dd>none</dd>", html, StringComparison.Ordinal);
         Assert.Empty(Html.SvgFragments(html));
         Assert.Contains("id=\"cautions\"", html, StringComparison.Ordinal);
-        Assert.Equal("flag_id,severity,batch,revision,recipe,step,code,subject,measured,limit,unit,message,review_state\r\n", CsvExceptionList.Render(empty));
+        Assert.Equal("flag_id,severity,batch,revision,recipe,step,code,subject,measured,limit,unit,message,review_state,deviation_ref,reviewed_by\r\n", CsvExceptionList.Render(empty));
     }
 
     [Fact]

@@ -1,3 +1,4 @@
+using BatchReconcile.Storage.Digests;
 using BatchReconcile.Reconciliation.Flags;
 using BatchReconcile.Storage.Review;
 using BatchReconcile.Storage.Schema;
@@ -121,6 +122,37 @@ public sealed class MigrationTests
         Assert.True(store.ReviewFlag(7, ReviewState.Closed, "A. Chen", "gap explained by a sampling loss", CloseOutcome.Explained).Accepted);
         Assert.True(store.RecordDigest(Build.Day1, ["digests/2026-11-23.md"], 1, rewrite: false, "system").Recorded);
         Assert.True(store.VerifyAudit().Intact);
+    }
+
+    [Fact]
+    public void The_digest_freshness_migration_counts_the_changes_and_finds_a_digest_older_than_a_revision_of_its_day()
+    {
+        using var db = new TempDatabase();
+        using (var connection = db.OpenRaw())
+        {
+            SchemaMigrator.MigrateTo(connection, 3);
+            Seed(connection, 3);
+            SchemaMigrator.MigrateTo(connection, Migrations.Latest - 1);
+            // Written by the earlier program: day 1's digest at 06:30 on the 24th, after revision 1 (20:00 on the 23rd)
+            // and the in-review decision on flag 7 (06:00), before revision 2 (07:00). Day 22's digest: nothing stored for it.
+            Db.Execute(connection, """
+                UPDATE flag SET state = 'in-review', reviewed_by = 'A. Chen', reviewed_at = '2026-11-24T06:00:00.0000000Z' WHERE id = 7;
+                INSERT INTO digest (day, written_at, written_by, is_rewrite, files, flag_count)
+                VALUES ('2026-11-23', '2026-11-24T06:30:00.0000000Z', 'system', 0, '["d.html"]', 1),
+                       ('2026-11-22', '2026-11-23T06:30:00.0000000Z', 'system', 0, '["e.html"]', 0);
+                """);
+            Assert.Equal([Migrations.Latest], SchemaMigrator.MigrateTo(connection, Migrations.Latest));
+        }
+
+        using var store = db.Open();
+        Assert.Equal(new DayChanges(1, 1, 0, 1), store.DayChangesOf(Build.Day1));
+        Assert.Equal(new DayChanges(1, 0, 0, 1), store.GetDigest(Build.Day1)!.Latest.Seen);
+        Assert.Equal(DayChanges.None, store.GetDigest(new DateOnly(2026, 11, 22))!.Latest.Seen);
+        Assert.Equal([Build.Day1], store.StaleDigestDays());
+
+        // The triggers count from here on: a new batch for day 22 makes its digest stale too.
+        store.Commit([Build.File("late.csv", Build.Ingest(Build.Batch("LATE-1"), new DateOnly(2026, 11, 22)))]);
+        Assert.Equal([new DateOnly(2026, 11, 22), Build.Day1], store.StaleDigestDays());
     }
 
     [Fact]

@@ -25,6 +25,7 @@ internal sealed class Svg
     public const string AccentLight = "#b8c4d6";
 
     private readonly StringBuilder _body = new();
+    private readonly StringBuilder _attributes = new();
 
     public Svg(double width, double height, string title, string description)
     {
@@ -51,11 +52,25 @@ internal sealed class Svg
 
     public static string Encode(string text) => WebUtility.HtmlEncode(text);
 
-    public Svg Rect(double x, double y, double w, double h, string fill, string? stroke = null, bool dashed = false, string? tooltip = null)
+    /// <summary>An attribute of the svg element itself (e.g. data-panel); the value is encoded.</summary>
+    public Svg Attribute(string name, string value)
+    {
+        _attributes.Append(' ').Append(name).Append("=\"").Append(Encode(value)).Append('"');
+        return this;
+    }
+
+    public Svg Rect(
+        double x, double y, double w, double h, string fill, string? stroke = null, bool dashed = false, string? tooltip = null,
+        IReadOnlyList<(string Name, string Value)>? attributes = null)
     {
         _body.Append("<rect x=\"").Append(N(x)).Append("\" y=\"").Append(N(y))
             .Append("\" width=\"").Append(N(Math.Max(w, 0))).Append("\" height=\"").Append(N(Math.Max(h, 0)))
             .Append("\" fill=\"").Append(fill).Append('"');
+        foreach (var (name, value) in attributes ?? [])
+        {
+            _body.Append(' ').Append(name).Append("=\"").Append(Encode(value)).Append('"');
+        }
+
         AppendStroke(stroke, dashed);
         return CloseShape("rect", tooltip);
     }
@@ -121,7 +136,7 @@ internal sealed class Svg
         var head = new StringBuilder();
         head.Append("<svg class=\"chart\" xmlns=\"http://www.w3.org/2000/svg\" role=\"img\" width=\"").Append(N(Width))
             .Append("\" height=\"").Append(N(Height)).Append("\" viewBox=\"0 0 ").Append(N(Width)).Append(' ').Append(N(Height))
-            .Append("\" font-family=\"Helvetica, Arial, 'DejaVu Sans', sans-serif\">\n")
+            .Append("\" font-family=\"Helvetica, Arial, 'DejaVu Sans', sans-serif\"").Append(_attributes).Append(">\n")
             .Append("<title>").Append(Encode(Title)).Append("</title>\n")
             .Append("<desc>").Append(Encode(Description)).Append("</desc>\n");
         return head.Append(_body).Append("</svg>").ToString();
