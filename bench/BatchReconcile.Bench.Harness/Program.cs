@@ -9,6 +9,7 @@ var repo = FindRepo();
 if (args.Length == 0 || args[0] is "-h" or "--help")
 {
     Console.Error.WriteLine("usage: harness generate --out DIR [--batches N] [--seed S] [--faults 0.05] [--rows-per-step R] [--per-day 50] [--first-day 2024-01-01] [--batches-per-file K] [--one-file-mb M]");
+    Console.Error.WriteLine("       harness soak [--kills 100] [--files-per-round 40] [--seed 11]");
     Console.Error.WriteLine("       harness measure [--quick] [--runs 5] [--small 1000] [--large 10000] [--big-batches 106000] [--big-runs 1] [--latency-files 20] [--rate 1] [--no-kernels]");
     return 2;
 }
@@ -73,6 +74,9 @@ try
 
             return 0;
         }
+
+        case "soak":
+            return new KillSoak(repo, Path.Combine(repo, "bench", "scratch"), options.Int("kills", 100), options.Int("files-per-round", 40), options.Int("seed", 11)).Run();
 
         default:
             Console.Error.WriteLine($"harness: unknown command '{args[0]}'");

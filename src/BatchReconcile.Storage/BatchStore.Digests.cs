@@ -29,9 +29,15 @@ public sealed partial class BatchStore
     /// and the kept earlier files in its audit entry. <see cref="DigestWriteRequest.WriteFiles"/> runs under the write
     /// lock once the checks have passed: two processes never number or write the same day's files at once.
     /// </summary>
+    /// <exception cref="StoreException">The database could not be written (locked, full, read-only); nothing was recorded.</exception>
     public DigestRecordResult RecordDigest(DigestWriteRequest request)
     {
         ArgumentNullException.ThrowIfNull(request);
+        return Guarded(() => RecordDigestInStore(request));
+    }
+
+    private DigestRecordResult RecordDigestInStore(DigestWriteRequest request)
+    {
         var (day, files, flagCount, rewrite, by) = (request.Day, request.Files, request.FlagCount, request.Rewrite, request.By);
         ArgumentNullException.ThrowIfNull(files);
         ArgumentOutOfRangeException.ThrowIfNegative(flagCount);

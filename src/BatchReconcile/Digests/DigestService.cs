@@ -38,7 +38,7 @@ public sealed class DigestService(
             {
                 Pass(now);
             }
-            catch (Exception e) when (e is IOException or UnauthorizedAccessException or StoreException)
+            catch (Exception e) when (e is IOException or UnauthorizedAccessException or StoreException or Microsoft.Data.Sqlite.SqliteException)
             {
                 logger.LogError(e, "Writing a due or stale digest failed; it is tried again in {Minutes} minute(s) or at the next due time", RetryAfterFailure.TotalMinutes);
                 interval = RetryAfterFailure;

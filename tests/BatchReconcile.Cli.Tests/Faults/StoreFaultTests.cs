@@ -44,7 +44,8 @@ public sealed class StoreFaultTests
         await sandbox.WaitUntilTakenAsync(2, service);
         Assert.Empty(sandbox.Data.QuarantinedFiles());
         Assert.NotNull(await sandbox.ShowAsync("F-LOCK-2"));
-        Assert.Contains("intake resumed", service.Stderr, StringComparison.Ordinal);
+        // The line is logged once the group is settled, just after its files were moved: wait for it.
+        await Poll.UntilAsync(() => service.Stderr.Contains("intake resumed", StringComparison.Ordinal), ServiceSandbox.Patience, () => service.Stderr);
         Assert.Equal(1, Count(service.Stderr, "The database refused a group"));
         Assert.DoesNotContain("   at ", service.Stderr, StringComparison.Ordinal);
         Assert.Equal(0, (await ProgramRunner.RunAsync("audit", "verify", "--data", sandbox.Data.Path)).ExitCode);
@@ -117,7 +118,7 @@ public sealed class StoreFaultTests
             File.Delete(filler);
             await Poll.UntilAsync(() => data.ArchivedFiles().Count == 2, ServiceSandbox.Patience, () => service.Stderr);
             Assert.Empty(data.QuarantinedFiles());
-            Assert.Contains("intake resumed", service.Stderr, StringComparison.Ordinal);
+            await Poll.UntilAsync(() => service.Stderr.Contains("intake resumed", StringComparison.Ordinal), ServiceSandbox.Patience, () => service.Stderr);
             await service.TerminateAsync(TimeSpan.FromSeconds(30));
         }
         finally
