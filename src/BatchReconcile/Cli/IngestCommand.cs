@@ -2,6 +2,7 @@ using System.CommandLine;
 using BatchReconcile.Hosting;
 using BatchReconcile.Intake.Inbox;
 using BatchReconcile.Pipeline;
+using BatchReconcile.Records;
 using BatchReconcile.Storage.Ingest;
 using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Options;
@@ -63,7 +64,7 @@ public static class IngestCommand
             foreach (var outcome in pipeline.Process(group))
             {
                 outcomes.Add(outcome);
-                lines.WriteLine($"[{outcomes.Count}/{files.Count}] {outcome.File}: {outcome.Outcome.ToText()}");
+                lines.WriteLine($"[{outcomes.Count}/{files.Count}] {SafeText.Escape(outcome.File)}: {outcome.Outcome.ToText()}");
             }
         }
 
@@ -81,7 +82,7 @@ public static class IngestCommand
                 files.AddRange(scan.Ready);
                 foreach (var notReady in scan.NotReady)
                 {
-                    stderr.WriteLine($"batchreconcile: {notReady} is still being written; left for a later run");
+                    stderr.WriteLine($"batchreconcile: {SafeText.Escape(notReady)} is still being written; left for a later run");
                 }
             }
             else if (File.Exists(path))
@@ -109,11 +110,11 @@ public static class IngestCommand
     {
         foreach (var o in outcomes)
         {
-            var batches = o.Batches.Count > 0 ? " (" + string.Join(", ", o.Batches.Select(b => $"{b.BatchId} rev {b.Revision}")) + ")" : string.Empty;
-            stdout.WriteLine($"{o.File}: {o.Outcome.ToText()}{batches} -> {o.MovedTo}");
+            var batches = o.Batches.Count > 0 ? " (" + string.Join(", ", o.Batches.Select(b => $"{SafeText.Escape(b.BatchId)} rev {b.Revision}")) + ")" : string.Empty;
+            stdout.WriteLine($"{SafeText.Escape(o.File)}: {o.Outcome.ToText()}{batches} -> {SafeText.Escape(o.MovedTo)}");
             if (o.ReportPath is not null)
             {
-                stdout.WriteLine($"  {o.Errors.Count} problem(s); report {o.ReportPath}");
+                stdout.WriteLine($"  {o.Errors.Count} problem(s); report {SafeText.Escape(o.ReportPath)}");
             }
         }
 
