@@ -92,7 +92,8 @@ public static class AppHost
 
         // The sink assemblies are named rather than found: finding them reads the dependency manifest and
         // scans the program's folder, a noticeable part of every one-shot command's start-up.
-        builder.Services.AddSerilog((_, logger) => logger.ReadFrom.Configuration(builder.Configuration, SinkAssemblies));
+        // Values from files reach log lines escaped (EscapingEnricher): no forged lines, no terminal control.
+        builder.Services.AddSerilog((_, logger) => logger.ReadFrom.Configuration(builder.Configuration, SinkAssemblies).Enrich.With<EscapingEnricher>());
         if (service)
         {
             builder.Services.AddSystemd();
