@@ -22,17 +22,23 @@ public static class IngestCommand
         {
             var intake = host.Services.GetRequiredService<IOptions<IntakeOptions>>().Value;
             var time = host.Services.GetRequiredService<TimeProvider>();
-            var files = Collect(parse.GetRequiredValue(paths), TimeSpan.FromSeconds(intake.SettleSeconds), time, stderr);
+            var ignored = new List<IgnoredEntry>();
+            var files = Collect(parse.GetRequiredValue(paths), TimeSpan.FromSeconds(intake.SettleSeconds), time, stderr, ignored);
             var pipeline = host.Services.GetRequiredService<IngestPipeline>();
             var asJson = parse.GetValue(json);
             var outcomes = Run(pipeline, files, intake.GroupCommitMaxFiles, asJson ? stderr : stdout, showProgress: !asJson && !Console.IsOutputRedirected);
             if (asJson)
             {
                 JsonOutput.Write(stdout, outcomes.Select(ToJson).ToList());
+                foreach (var entry in ignored)
+                {
+                    // stdout holds the JSON document only.
+                    stderr.WriteLine($"batchreconcile: {SafeText.Escape(entry.Name)} is a {entry.KindText}; never read");
+                }
             }
             else
             {
-                WriteSummary(stdout, outcomes);
+                WriteSummary(stdout, outcomes, ignored);
             }
 
             return outcomes.Any(o => o.Outcome == IngestOutcome.Quarantined) ? ExitCodes.CompletedWithQuarantine : ExitCodes.Success;
@@ -71,7 +77,7 @@ public static class IngestCommand
         return outcomes;
     }
 
-    private static IReadOnlyList<ReadyFile> Collect(string[] paths, TimeSpan settle, TimeProvider time, TextWriter stderr)
+    private static IReadOnlyList<ReadyFile> Collect(string[] paths, TimeSpan settle, TimeProvider time, TextWriter stderr, List<IgnoredEntry> ignored)
     {
         var files = new List<ReadyFile>();
         foreach (var path in paths)
@@ -80,6 +86,7 @@ public static class IngestCommand
             {
                 var scan = InboxScanner.ScanOnceAsync(path, settle, time).GetAwaiter().GetResult();
                 files.AddRange(scan.Ready);
+                ignored.AddRange(scan.Ignored.Select(i => i with { Name = Path.Combine(path, i.Name) }));
                 foreach (var notReady in scan.NotReady)
                 {
                     stderr.WriteLine($"batchreconcile: {SafeText.Escape(notReady)} is still being written; left for a later run");
@@ -106,7 +113,7 @@ public static class IngestCommand
         return files;
     }
 
-    private static void WriteSummary(TextWriter stdout, IReadOnlyList<FileOutcome> outcomes)
+    private static void WriteSummary(TextWriter stdout, IReadOnlyList<FileOutcome> outcomes, IReadOnlyList<IgnoredEntry> ignored)
     {
         foreach (var o in outcomes)
         {
@@ -118,7 +125,13 @@ public static class IngestCommand
             }
         }
 
-        stdout.WriteLine(string.Join(", ", outcomes.GroupBy(o => o.Outcome).OrderBy(g => g.Key).Select(g => $"{g.Count()} {g.Key.ToText()}")));
+        foreach (var entry in ignored)
+        {
+            stdout.WriteLine($"{SafeText.Escape(entry.Name)}: never read (a {entry.KindText})");
+        }
+
+        var counts = outcomes.GroupBy(o => o.Outcome).OrderBy(g => g.Key).Select(g => $"{g.Count()} {g.Key.ToText()}");
+        stdout.WriteLine(string.Join(", ", ignored.Count > 0 ? counts.Append($"{ignored.Count} ignored") : counts));
     }
 
     private static IngestFileJson ToJson(FileOutcome o) => new(
