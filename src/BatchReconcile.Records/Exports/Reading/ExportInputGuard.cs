@@ -213,7 +213,10 @@ internal sealed class ExportInputGuard(Stream inner) : Stream
         }
 
         var inFirstBlock = _lineStartOffset < FirstBlock;
-        var nul = content.IndexOf((byte)0);
+
+        // One pass for the two bytes that are never allowed; the rare line that has one is looked at again.
+        var special = content.IndexOfAny((byte)0, (byte)'\r');
+        var nul = special < 0 ? -1 : content.IndexOf((byte)0);
         if (nul >= 0)
         {
             Stop(_line, "", inFirstBlock
@@ -229,7 +232,7 @@ internal sealed class ExportInputGuard(Stream inner) : Stream
             return false;
         }
 
-        var cr = content.IndexOf((byte)'\r');
+        var cr = special < 0 ? -1 : content.IndexOf((byte)'\r');
         if (cr >= 0)
         {
             Stop(_line, "", Invariant($"line {_line} has a carriage return (CR) that is not followed by LF (byte {cr + 1}): the file has CR-only line ends, or a CR inside a value; the export format allows LF or CRLF line ends only"));
