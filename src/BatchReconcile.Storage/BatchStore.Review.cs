@@ -130,7 +130,7 @@ public sealed partial class BatchStore
             return Refuse(ReviewRefusal.ReviewerMissing, "a reviewer name is required (--by NAME)");
         }
 
-        if (string.Equals(by.Trim(), AuditWriter.SystemActor, StringComparison.OrdinalIgnoreCase))
+        if (ReviewRules.IsReservedName(by, AuditWriter.SystemActor))
         {
             return Refuse(ReviewRefusal.ReviewerMissing, $"the name '{AuditWriter.SystemActor}' is kept for the program's own entries; give the reviewer's name");
         }

@@ -87,6 +87,135 @@ public sealed class FileMover
     }
 
     /// <summary>
+    /// Settles a file whose content is already stored (a duplicate by SHA-256): when the archive already
+    /// holds a file of the same name (or a numbered variant of it) with the same size and hash, the file
+    /// is removed from the inbox and the archived copy is returned, so that re-delivering or linking an
+    /// archived file back does not add <c>name (2).csv</c>. Otherwise (for instance after a crash between
+    /// storing and archiving, when the inbox holds the only copy) it is archived as usual.
+    /// </summary>
+    /// <returns>The archived copy, and whether it was there already (the inbox file was removed).</returns>
+    public (MovedFile File, bool AlreadyArchived) MoveDuplicate(string sourcePath, string sha256)
+    {
+        ArgumentException.ThrowIfNullOrWhiteSpace(sha256);
+        var source = Path.GetFullPath(sourcePath);
+        if (FindArchivedCopy(source, sha256) is { } copy)
+        {
+            File.Delete(source);
+            return (new MovedFile(source, copy, CopiedAcrossVolumes: false), true);
+        }
+
+        return (MoveToArchive(source), false);
+    }
+
+    private string? FindArchivedCopy(string source, string sha256)
+    {
+        if (!Directory.Exists(Archive.Root))
+        {
+            return null;
+        }
+
+        var name = Path.GetFileName(source);
+        var extension = Path.GetExtension(name);
+        var stem = name[..^extension.Length];
+        var length = new FileInfo(source).Length;
+        var options = new EnumerationOptions { RecurseSubdirectories = true, MatchType = MatchType.Simple, IgnoreInaccessible = true, AttributesToSkip = FileAttributes.ReparsePoint };
+        foreach (var candidate in Directory.EnumerateFiles(Archive.Root, stem + "*" + extension, options))
+        {
+            var candidateName = Path.GetFileName(candidate);
+            if (!IsNameOrVariant(candidateName, stem, extension) || new FileInfo(candidate).Length != length)
+            {
+                continue;
+            }
+
+            if (string.Equals(FileHash.Sha256Of(candidate), sha256, StringComparison.OrdinalIgnoreCase))
+            {
+                return candidate;
+            }
+        }
+
+        return null;
+    }
+
+    // "name.csv" or "name (N).csv", as WithSuffix makes them.
+    private static bool IsNameOrVariant(string candidate, string stem, string extension)
+    {
+        if (!candidate.EndsWith(extension, StringComparison.Ordinal) || !candidate.StartsWith(stem, StringComparison.Ordinal))
+        {
+            return false;
+        }
+
+        var middle = candidate[stem.Length..^extension.Length];
+        return middle.Length == 0
+            || (middle.StartsWith(" (", StringComparison.Ordinal) && middle.EndsWith(')') && middle.Length > 3
+                && middle[2..^1].All(char.IsAsciiDigit));
+    }
+
+    /// <summary>
+    /// Removes what an interrupted run left behind: the hidden temporaries of
+    /// <see cref="WriteAtomically"/> and of cross-volume copies (<c>.NAME.GUID.tmp</c>) in the quarantine and
+    /// archive folders (and <paramref name="moreFolders"/>), and the hidden probe folders (<c>.intake-probe-GUID</c>) in those and in
+    /// <paramref name="inbox"/>. Only entries untouched for <paramref name="minimumAge"/> are removed, so that
+    /// a write in progress by another process is left alone. Call at start-up.
+    /// </summary>
+    /// <param name="moreFolders">Other folders written with <see cref="WriteAtomically"/> (the digests), searched like the archive.</param>
+    /// <returns>The paths removed.</returns>
+    public IReadOnlyList<string> RemoveStaleTemporaries(string? inbox, TimeSpan minimumAge, params string[] moreFolders)
+    {
+        var removed = new List<string>();
+        var before = _time.GetUtcNow().UtcDateTime - minimumAge;
+        var roots = new[] { QuarantineRoot, Archive.Root, inbox }.Concat(moreFolders).Where(r => r is not null && Directory.Exists(r)).Cast<string>().Distinct();
+        foreach (var root in roots)
+        {
+            var recursive = !string.Equals(root, inbox, StringComparison.Ordinal);
+            var options = new EnumerationOptions { RecurseSubdirectories = recursive, IgnoreInaccessible = true, AttributesToSkip = FileAttributes.ReparsePoint, MatchType = MatchType.Simple };
+            foreach (var entry in Directory.EnumerateFileSystemEntries(root, ".*", options).ToList())
+            {
+                var name = Path.GetFileName(entry);
+                try
+                {
+                    if (!recursive && !name.StartsWith(ProbePrefix, StringComparison.Ordinal))
+                    {
+                        continue; // in the inbox only the probe folders are ours; .part and .tmp files belong to the exporter
+                    }
+
+                    if (IsOurTemporary(name) && File.Exists(entry) && File.GetLastWriteTimeUtc(entry) <= before)
+                    {
+                        File.Delete(entry);
+                        removed.Add(entry);
+                    }
+                    else if (IsOurProbe(name) && Directory.Exists(entry) && Directory.GetLastWriteTimeUtc(entry) <= before
+                             && !Directory.EnumerateFileSystemEntries(entry).Any())
+                    {
+                        Directory.Delete(entry);
+                        removed.Add(entry);
+                    }
+                }
+                catch (IOException)
+                {
+                    // Gone meanwhile or in use: left for the next start.
+                }
+                catch (UnauthorizedAccessException)
+                {
+                    // As above.
+                }
+            }
+        }
+
+        return removed;
+    }
+
+    private const string ProbePrefix = ".intake-probe-";
+
+    // ".NAME.<32 hex>.tmp", as TempNameBeside makes them.
+    private static bool IsOurTemporary(string name) =>
+        name.Length > 1 + 1 + 32 + 4 && name[0] == '.' && name.EndsWith(".tmp", StringComparison.Ordinal)
+        && name[^37] == '.' && name[^36..^4].All(char.IsAsciiHexDigitLower);
+
+    private static bool IsOurProbe(string name) =>
+        name.StartsWith(ProbePrefix, StringComparison.Ordinal) && name.Length == ProbePrefix.Length + 32
+        && name[ProbePrefix.Length..].All(char.IsAsciiHexDigitLower);
+
+    /// <summary>
     /// Moves a rejected file to quarantine and writes <paramref name="reportText"/> (UTF-8) beside it as
     /// <c>NAME.report.txt</c>, where NAME is the file's name in quarantine.
     /// </summary>
@@ -236,7 +365,7 @@ public sealed class FileMover
         var sourceDirectory = Path.GetDirectoryName(sourceFile) ?? throw new ArgumentException($"'{sourceFile}' has no folder.", nameof(sourceFile));
         return _sameVolume.GetOrAdd((sourceDirectory, destinationDirectory), static key =>
         {
-            var probeName = ".intake-probe-" + Guid.NewGuid().ToString("N");
+            var probeName = ProbePrefix + Guid.NewGuid().ToString("N");
             var from = Path.Combine(key.From, probeName);
             var to = Path.Combine(key.To, probeName);
             try

@@ -35,6 +35,6 @@ public static class InboxScanner
             await Task.Delay(wait, time, cancellationToken).ConfigureAwait(false);
         }
 
-        return new InboxScan(ready, watcher.PendingNames());
+        return new InboxScan(ready, watcher.PendingNames(), watcher.Ignored());
     }
 }

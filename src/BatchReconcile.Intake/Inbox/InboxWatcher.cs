@@ -33,6 +33,8 @@ public sealed class InboxWatcher : IDisposable
     private readonly PriorityQueue<string, long> _due = new();
     private readonly SortedSet<ReadyFile> _ready = new(Comparer<ReadyFile>.Create(CompareArrival));
     private readonly ConcurrentQueue<string> _events = new();
+    private readonly Dictionary<string, IgnoredKind> _ignored = new(StringComparer.Ordinal);
+    private readonly List<IgnoredEntry> _newlyIgnored = [];
     private TaskCompletionSource _wake = NewWake();
     private FileSystemWatcher? _watcher;
     private long _nextRescanAt;
@@ -187,6 +189,30 @@ public sealed class InboxWatcher : IDisposable
     }
 
     /// <summary>Names of candidate files seen but not (yet) complete, for reporting.</summary>
+    /// <summary>
+    /// The symbolic links and folders (with names that could be exports) found by the listings since the
+    /// last call: each is returned once while it stays in the inbox, so that the caller can log it once.
+    /// They are never read.
+    /// </summary>
+    public IReadOnlyList<IgnoredEntry> TakeNewlyIgnored()
+    {
+        lock (_gate)
+        {
+            var taken = _newlyIgnored.ToList();
+            _newlyIgnored.Clear();
+            return taken;
+        }
+    }
+
+    /// <summary>Every symbolic link and folder in the inbox at the last listing, by name.</summary>
+    public IReadOnlyList<IgnoredEntry> Ignored()
+    {
+        lock (_gate)
+        {
+            return _ignored.OrderBy(i => i.Key, StringComparer.Ordinal).Select(i => new IgnoredEntry(i.Key, i.Value)).ToList();
+        }
+    }
+
     internal IReadOnlyList<string> PendingNames()
     {
         lock (_gate)
@@ -386,11 +412,26 @@ public sealed class InboxWatcher : IDisposable
     {
         var nowUtc = _time.GetUtcNow();
         var present = new HashSet<string>(StringComparer.Ordinal);
-        foreach (var path in Directory.EnumerateFiles(_options.InboxPath))
+        var ignoredNow = new HashSet<string>(StringComparer.Ordinal);
+        foreach (var info in new DirectoryInfo(_options.InboxPath).EnumerateFileSystemInfos())
         {
-            var name = Path.GetFileName(path);
+            var name = info.Name;
             if (!InboxFileName.IsCandidate(name))
             {
+                continue;
+            }
+
+            if ((info.Attributes & FileAttributes.ReparsePoint) != 0 || info is DirectoryInfo)
+            {
+                // Never read, but said once (TakeNewlyIgnored), so that a folder or link dropped by mistake is noticed.
+                ignoredNow.Add(name);
+                var kind = (info.Attributes & FileAttributes.ReparsePoint) != 0 ? IgnoredKind.SymbolicLink : IgnoredKind.Folder;
+                if (!_ignored.TryGetValue(name, out var known) || known != kind)
+                {
+                    _ignored[name] = kind;
+                    _newlyIgnored.Add(new IgnoredEntry(name, kind));
+                }
+
                 continue;
             }
 
@@ -415,6 +456,11 @@ public sealed class InboxWatcher : IDisposable
         foreach (var entry in _entries.Values.Where(e => !present.Contains(e.Name)).ToList())
         {
             Forget(entry);
+        }
+
+        foreach (var gone in _ignored.Keys.Where(n => !ignoredNow.Contains(n)).ToList())
+        {
+            _ignored.Remove(gone);
         }
 
         var now = _time.GetTimestamp();

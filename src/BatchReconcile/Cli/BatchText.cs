@@ -1,6 +1,7 @@
 using System.Globalization;
 using BatchReconcile.Reconciliation.Outcomes;
 using BatchReconcile.Reconciliation.Flags;
+using BatchReconcile.Records;
 using BatchReconcile.Records.Definitions;
 using BatchReconcile.Records.Exports;
 
@@ -47,7 +48,7 @@ public static class BatchText
 
     /// <param name="source">How the version was chosen; null when unknown (stored before it was recorded).</param>
     public static string Header(string batch, string recipe, int version, RecipeVersionSource? source, DateOnly day, string? revision) =>
-        string.Create(Inv, $"batch {batch}: recipe {recipe} v{version}{revision}, production day {day:yyyy-MM-dd}; recipe version source: {source?.ToText() ?? "unknown"}");
+        string.Create(Inv, $"batch {SafeText.Escape(batch)}: recipe {SafeText.Escape(recipe)} v{version}{revision}, production day {day:yyyy-MM-dd}; recipe version source: {source?.ToText() ?? "unknown"}");
 
     /// <param name="steps">Each step with its flags and their stored ids (null when not stored).</param>
     public static void Write(TextWriter o, string header, IEnumerable<string> notes, IEnumerable<(StepOutcome Step, IReadOnlyList<(Flag Flag, long? Id)> Flags)> steps)
@@ -55,12 +56,12 @@ public static class BatchText
         o.WriteLine(header);
         foreach (var note in notes)
         {
-            o.WriteLine($"  note: {note}");
+            o.WriteLine($"  note: {SafeText.Escape(note)}");
         }
 
         foreach (var (s, flags) in steps)
         {
-            o.WriteLine($"  step {s.Step}{(s.HasRows ? string.Empty : " (no rows)")}");
+            o.WriteLine($"  step {SafeText.Escape(s.Step)}{(s.HasRows ? string.Empty : " (no rows)")}");
             o.WriteLine(string.Create(Inv, $"    limiting reactant {s.LimitingReactant ?? "-"}; theoretical {Kg(s.TheoreticalKg)}, actual {Kg(s.ActualKg)}, yield {Pct(s.YieldPct)}"));
             if (s.HasRows && s.LimitingReactant is null)
             {
@@ -72,13 +73,13 @@ public static class BatchText
             o.WriteLine(Limits(s.Limits));
             foreach (var rung in s.Ladder)
             {
-                o.WriteLine(string.Create(Inv, $"      {rung.Label,-48} {rung.Kg,12:F3} kg {rung.PctOfCharged,8:F2} %"));
+                o.WriteLine(string.Create(Inv, $"      {SafeText.Escape(rung.Label),-48} {rung.Kg,12:F3} kg {rung.PctOfCharged,8:F2} %"));
             }
 
             foreach (var (flag, flagId) in flags)
             {
                 var id = flagId is { } n ? string.Create(Inv, $"#{n} ") : string.Empty;
-                o.WriteLine($"    {id}{flag.Severity.ToText().ToUpperInvariant()} {flag.Code.ToText()}: {flag.Message}");
+                o.WriteLine($"    {id}{flag.Severity.ToText().ToUpperInvariant()} {flag.Code.ToText()}: {SafeText.Escape(flag.Message)}");
             }
         }
     }

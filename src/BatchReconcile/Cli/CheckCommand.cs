@@ -1,6 +1,7 @@
 using System.CommandLine;
 using System.Globalization;
 using BatchReconcile.Pipeline;
+using BatchReconcile.Records;
 using BatchReconcile.Records.Exports;
 using BatchReconcile.Storage.Ingest;
 using Microsoft.Extensions.DependencyInjection;
@@ -44,14 +45,14 @@ public static class CheckCommand
             {
                 foreach (var error in read.Errors)
                 {
-                    stdout.WriteLine(error.ToString());
+                    stdout.WriteLine(SafeText.Escape(error.ToString()));
                 }
             }
 
             if (!read.IsValid)
             {
                 var first = read.Errors[0];
-                stderr.WriteLine($"batchreconcile: {read.FileName} would be quarantined: {read.Errors.Count} problem(s), first {Where(first)}: {first.Reason}");
+                stderr.WriteLine($"batchreconcile: {SafeText.Escape(read.FileName)} would be quarantined: {read.Errors.Count} problem(s), first {Where(first)}: {SafeText.Escape(first.Reason)}");
                 return ExitCodes.BadInput;
             }
 

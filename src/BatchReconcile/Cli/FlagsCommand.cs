@@ -1,6 +1,7 @@
 using System.CommandLine;
 using System.Globalization;
 using BatchReconcile.Reconciliation.Flags;
+using BatchReconcile.Records;
 using BatchReconcile.Records.Definitions;
 using BatchReconcile.Storage;
 using Microsoft.Extensions.DependencyInjection;
@@ -38,8 +39,8 @@ public static class FlagsCommand
             foreach (var f in flags)
             {
                 var state = f.Review.Outcome is { } outcome ? $"closed ({outcome.ToText()})" : f.Review.State.ToText();
-                stdout.WriteLine(string.Create(Inv, $"#{f.Id} {f.ProductionDay:yyyy-MM-dd} {f.Severity.ToText(),-8} {f.BatchId} rev {f.Revision} {f.Step} {f.Code.ToText()} [{state}]"));
-                stdout.WriteLine($"    {f.Message}");
+                stdout.WriteLine(string.Create(Inv, $"#{f.Id} {f.ProductionDay:yyyy-MM-dd} {f.Severity.ToText(),-8} {SafeText.Escape(f.BatchId)} rev {f.Revision} {SafeText.Escape(f.Step)} {f.Code.ToText()} [{state}]"));
+                stdout.WriteLine($"    {SafeText.Escape(f.Message)}");
             }
 
             stdout.WriteLine(string.Create(Inv, $"{flags.Count} flag(s)"));
@@ -76,7 +77,7 @@ public static class FlagsCommand
 
             var review = result.Review!;
             var detail = review.Outcome is { } o ? $" ({o.ToText()}{(review.DeviationRef is { } r ? $", {r}" : "")})" : string.Empty;
-            stdout.WriteLine(string.Create(Inv, $"flag {flagId}: {review.State.ToText()}{detail}, by {review.By} at {review.At:yyyy-MM-ddTHH:mm:ssZ}; audit entry {result.AuditId}"));
+            stdout.WriteLine(string.Create(Inv, $"flag {flagId}: {review.State.ToText()}{detail}, by {SafeText.Escape(review.By)} at {review.At:yyyy-MM-ddTHH:mm:ssZ}; audit entry {result.AuditId}"));
             return ExitCodes.Success;
         }, storeOnly: true));
         return command;

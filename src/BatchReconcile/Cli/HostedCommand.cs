@@ -1,6 +1,10 @@
 using System.CommandLine;
+using System.Globalization;
+using System.Text.Json;
+using System.Text.RegularExpressions;
 using BatchReconcile.Hosting;
 using BatchReconcile.Pipeline;
+using BatchReconcile.Records;
 using BatchReconcile.Storage;
 using Microsoft.Extensions.Hosting;
 using Microsoft.Extensions.Options;
@@ -11,7 +15,7 @@ namespace BatchReconcile.Cli;
 /// Runs a command inside the application host. Settings, process definitions and the database are
 /// checked first; anything wrong there is bad input (exit 2) with one line naming the file and setting.
 /// </summary>
-public static class HostedCommand
+public static partial class HostedCommand
 {
     /// <param name="storeOnly">A command that works on the store alone (lists, shows, reviews, verifies) does not load
     /// the process definitions: they play no part in its answer, and loading them was a quarter of its start-up time.</param>
@@ -38,14 +42,64 @@ public static class HostedCommand
         }
     }
 
-    private static string? Describe(Exception e, AppContextOptions context) => e switch
+    private static string? Describe(Exception e, AppContextOptions context)
     {
-        OptionsValidationException o => $"settings in {Path.Combine(context.ConfigDirectory, "appsettings.json")} refused: {string.Join("; ", o.Failures)}",
-        DefinitionsException d => d.Message,
-        ConfigurationException c => c.Message,
-        StoreException s => $"database: {s.Message}",
-        InvalidDataException i => $"settings in {Path.Combine(context.ConfigDirectory, "appsettings.json")}: {i.Message}",
-        InvalidOperationException { InnerException: FormatException f } => $"settings in {Path.Combine(context.ConfigDirectory, "appsettings.json")}: {f.Message}",
-        _ => null,
+        var settings = Path.Combine(context.ConfigDirectory, "appsettings.json");
+        return e switch
+        {
+            OptionsValidationException o => $"settings in {settings} refused: {string.Join("; ", o.Failures)}",
+            DefinitionsException d => d.Message,
+            ConfigurationException c => c.Message,
+            StoreException s => $"database: {s.Message}",
+            InvalidDataException i when Inner<JsonException>(i) is { } j => $"settings in {settings} are not valid JSON{JsonPosition(j)}: {JsonReason(j)}",
+            InvalidDataException i => $"settings in {settings}: {i.Message}",
+            InvalidOperationException i when BinderFailure().Match(i.Message) is { Success: true } m =>
+                $"settings in {settings} refused: {m.Groups["path"].Value} = '{SafeText.Escape(SafeText.Prefix(m.Groups["value"].Value, 80))}' is not {Expected(m.Groups["type"].Value)}",
+            // The logging settings (section Serilog) are read by Serilog.Settings.Configuration, whose messages name the value.
+            InvalidOperationException or ArgumentException or FormatException when e.Source == "Serilog.Settings.Configuration" =>
+                $"settings in {settings} refused: Serilog: {SafeText.Escape(e.Message)}",
+            InvalidOperationException { InnerException: FormatException f } => $"settings in {settings}: {f.Message}",
+            _ => null,
+        };
+    }
+
+    private static T? Inner<T>(Exception e)
+        where T : Exception
+    {
+        for (var inner = e.InnerException; inner is not null; inner = inner.InnerException)
+        {
+            if (inner is T found)
+            {
+                return found;
+            }
+        }
+
+        return null;
+    }
+
+    // "Failed to convert configuration value 'abc' at 'Intake:SettleSeconds' to type 'System.Double'." (Microsoft.Extensions.Configuration.Binder)
+    [GeneratedRegex(@"^Failed to convert configuration value '(?<value>.*)' at '(?<path>[^']*)' to type '(?<type>[^']*)'", RegexOptions.Singleline | RegexOptions.CultureInvariant)]
+    private static partial Regex BinderFailure();
+
+    private static string Expected(string type) => type switch
+    {
+        "System.Double" or "System.Decimal" or "System.Single" => "a number (write it like 2.5, with '.' as the decimal separator)",
+        "System.Int32" or "System.Int64" => "a whole number",
+        "System.Boolean" => "true or false",
+        "System.TimeSpan" => "a time span such as 00:05:00",
+        _ => $"a valid {type.Split('.')[^1]}",
     };
+
+    // Line and position are 0-based in JsonException; people count from 1.
+    private static string JsonPosition(JsonException j) =>
+        j.LineNumber is { } line
+            ? string.Create(CultureInfo.InvariantCulture, $" at line {line + 1}, position {(j.BytePositionInLine ?? 0) + 1}")
+            : "";
+
+    private static string JsonReason(JsonException j)
+    {
+        var reason = j.Message;
+        var cut = reason.IndexOf(" LineNumber:", StringComparison.Ordinal);
+        return (cut >= 0 ? reason[..cut] : reason).Trim().TrimEnd('.');
+    }
 }

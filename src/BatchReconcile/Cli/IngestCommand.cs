@@ -3,6 +3,7 @@ using BatchReconcile.Digests;
 using BatchReconcile.Hosting;
 using BatchReconcile.Intake.Inbox;
 using BatchReconcile.Pipeline;
+using BatchReconcile.Records;
 using BatchReconcile.Storage.Ingest;
 using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Options;
@@ -22,7 +23,8 @@ public static class IngestCommand
         {
             var intake = host.Services.GetRequiredService<IOptions<IntakeOptions>>().Value;
             var time = host.Services.GetRequiredService<TimeProvider>();
-            var files = Collect(parse.GetRequiredValue(paths), TimeSpan.FromSeconds(intake.SettleSeconds), time, stderr);
+            var ignored = new List<IgnoredEntry>();
+            var files = Collect(parse.GetRequiredValue(paths), TimeSpan.FromSeconds(intake.SettleSeconds), time, stderr, ignored);
             var pipeline = host.Services.GetRequiredService<IngestPipeline>();
             var asJson = parse.GetValue(json);
             var outcomes = Run(pipeline, files, intake.GroupCommitMaxFiles, asJson ? stderr : stdout, showProgress: !asJson && !Console.IsOutputRedirected);
@@ -31,10 +33,15 @@ public static class IngestCommand
             if (asJson)
             {
                 JsonOutput.Write(stdout, outcomes.Select(ToJson).ToList());
+                foreach (var entry in ignored)
+                {
+                    // stdout holds the JSON document only.
+                    stderr.WriteLine($"batchreconcile: {SafeText.Escape(entry.Name)} is a {entry.KindText}; never read");
+                }
             }
             else
             {
-                WriteSummary(stdout, outcomes);
+                WriteSummary(stdout, outcomes, ignored);
             }
 
             foreach (var digest in rewritten)
@@ -73,14 +80,14 @@ public static class IngestCommand
             foreach (var outcome in pipeline.Process(group))
             {
                 outcomes.Add(outcome);
-                lines.WriteLine($"[{outcomes.Count}/{files.Count}] {outcome.File}: {outcome.Outcome.ToText()}");
+                lines.WriteLine($"[{outcomes.Count}/{files.Count}] {SafeText.Escape(outcome.File)}: {outcome.Outcome.ToText()}");
             }
         }
 
         return outcomes;
     }
 
-    private static IReadOnlyList<ReadyFile> Collect(string[] paths, TimeSpan settle, TimeProvider time, TextWriter stderr)
+    private static IReadOnlyList<ReadyFile> Collect(string[] paths, TimeSpan settle, TimeProvider time, TextWriter stderr, List<IgnoredEntry> ignored)
     {
         var files = new List<ReadyFile>();
         foreach (var path in paths)
@@ -89,9 +96,10 @@ public static class IngestCommand
             {
                 var scan = InboxScanner.ScanOnceAsync(path, settle, time).GetAwaiter().GetResult();
                 files.AddRange(scan.Ready);
+                ignored.AddRange(scan.Ignored.Select(i => i with { Name = Path.Combine(path, i.Name) }));
                 foreach (var notReady in scan.NotReady)
                 {
-                    stderr.WriteLine($"batchreconcile: {notReady} is still being written; left for a later run");
+                    stderr.WriteLine($"batchreconcile: {SafeText.Escape(notReady)} is still being written; left for a later run");
                 }
             }
             else if (File.Exists(path))
@@ -115,19 +123,25 @@ public static class IngestCommand
         return files;
     }
 
-    private static void WriteSummary(TextWriter stdout, IReadOnlyList<FileOutcome> outcomes)
+    private static void WriteSummary(TextWriter stdout, IReadOnlyList<FileOutcome> outcomes, IReadOnlyList<IgnoredEntry> ignored)
     {
         foreach (var o in outcomes)
         {
-            var batches = o.Batches.Count > 0 ? " (" + string.Join(", ", o.Batches.Select(b => $"{b.BatchId} rev {b.Revision}")) + ")" : string.Empty;
-            stdout.WriteLine($"{o.File}: {o.Outcome.ToText()}{batches} -> {o.MovedTo}");
+            var batches = o.Batches.Count > 0 ? " (" + string.Join(", ", o.Batches.Select(b => $"{SafeText.Escape(b.BatchId)} rev {b.Revision}")) + ")" : string.Empty;
+            stdout.WriteLine($"{SafeText.Escape(o.File)}: {o.Outcome.ToText()}{batches} -> {SafeText.Escape(o.MovedTo)}");
             if (o.ReportPath is not null)
             {
-                stdout.WriteLine($"  {o.Errors.Count} problem(s); report {o.ReportPath}");
+                stdout.WriteLine($"  {o.Errors.Count} problem(s); report {SafeText.Escape(o.ReportPath)}");
             }
         }
 
-        stdout.WriteLine(string.Join(", ", outcomes.GroupBy(o => o.Outcome).OrderBy(g => g.Key).Select(g => $"{g.Count()} {g.Key.ToText()}")));
+        foreach (var entry in ignored)
+        {
+            stdout.WriteLine($"{SafeText.Escape(entry.Name)}: never read (a {entry.KindText})");
+        }
+
+        var counts = outcomes.GroupBy(o => o.Outcome).OrderBy(g => g.Key).Select(g => $"{g.Count()} {g.Key.ToText()}");
+        stdout.WriteLine(string.Join(", ", ignored.Count > 0 ? counts.Append($"{ignored.Count} ignored") : counts));
     }
 
     private static IngestFileJson ToJson(FileOutcome o) => new(

@@ -18,6 +18,34 @@ public static class JsonOutput
 
     public static void Write<T>(TextWriter output, T value)
     {
-        output.WriteLine(JsonSerializer.Serialize(value, Options));
+        output.WriteLine(EscapeBidi(JsonSerializer.Serialize(value, Options)));
+    }
+
+    /// <summary>
+    /// The relaxed encoder escapes control characters but writes bidirectional controls (U+202E ...) raw,
+    /// which a terminal shows as reversed text. Outside strings JSON is ASCII, so writing each of them as
+    /// a \u escape wherever it occurs gives the same document.
+    /// </summary>
+    private static string EscapeBidi(string json)
+    {
+        if (!json.Any(c => c > '\u00FF' && BatchReconcile.Records.SafeText.IsRefused(c)))
+        {
+            return json;
+        }
+
+        var escaped = new System.Text.StringBuilder(json.Length + 16);
+        foreach (var c in json)
+        {
+            if (c > '\u00FF' && BatchReconcile.Records.SafeText.IsRefused(c))
+            {
+                escaped.Append("\\u").Append(((int)c).ToString("X4", System.Globalization.CultureInfo.InvariantCulture));
+            }
+            else
+            {
+                escaped.Append(c);
+            }
+        }
+
+        return escaped.ToString();
     }
 }

@@ -26,6 +26,9 @@ public static class AppHost
         typeof(ConsoleLoggerConfigurationExtensions).Assembly,
         typeof(FileLoggerConfigurationExtensions).Assembly);
 
+    /// <summary>A temporary of ours not written for this long belongs to no write in progress.</summary>
+    private static readonly TimeSpan StaleTemporaryAge = TimeSpan.FromMinutes(1);
+
     /// <param name="service">True for <c>run</c>: the inbox service is added and console logging is at the configured level.
     /// One-shot commands log warnings and above to the console (stderr) and everything to the log file.</param>
     /// <param name="quietConsole">Keep the console to errors (the demo prints its own summary).</param>
@@ -79,7 +82,16 @@ public static class AppHost
         {
             var f = sp.GetRequiredService<DataFolders>();
             var zone = sp.GetRequiredService<IOptions<SiteOptions>>().Value.GetZone();
-            return new FileMover(new ArchiveLayout(f.Archive, zone), f.Quarantine, sp.GetRequiredService<TimeProvider>());
+            var mover = new FileMover(new ArchiveLayout(f.Archive, zone), f.Quarantine, sp.GetRequiredService<TimeProvider>());
+
+            // What a killed run left behind (hidden .NAME.GUID.tmp files, probe folders); see docs/storage.md.
+            var log = sp.GetRequiredService<ILogger<FileMover>>();
+            foreach (var stale in mover.RemoveStaleTemporaries(f.Inbox, StaleTemporaryAge, f.Digests))
+            {
+                log.LogInformation("Removed {Temporary}, a temporary file left by an interrupted run", stale);
+            }
+
+            return mover;
         });
         builder.Services.AddSingleton(sp => sp.GetRequiredService<IOptions<ReconciliationSettings>>().Value);
         builder.Services.AddSingleton<IngestPipeline>();
@@ -92,7 +104,8 @@ public static class AppHost
 
         // The sink assemblies are named rather than found: finding them reads the dependency manifest and
         // scans the program's folder, a noticeable part of every one-shot command's start-up.
-        builder.Services.AddSerilog((_, logger) => logger.ReadFrom.Configuration(builder.Configuration, SinkAssemblies));
+        // Values from files reach log lines escaped (EscapingEnricher): no forged lines, no terminal control.
+        builder.Services.AddSerilog((_, logger) => logger.ReadFrom.Configuration(builder.Configuration, SinkAssemblies).Enrich.With<EscapingEnricher>());
         if (service)
         {
             builder.Services.AddSystemd();

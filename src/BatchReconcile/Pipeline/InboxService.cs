@@ -48,6 +48,7 @@ public sealed class InboxService(
             time);
         watcher.Start();
         logger.LogInformation("Watching {Inbox} (settle {Settle} s, rescan {Rescan} s)", folders.Inbox, options.SettleSeconds, options.RescanSeconds);
+        LogIgnored(watcher);
 
         TimeSpan? backOff = null;
         DateTimeOffset? failingSince = null;
@@ -63,6 +64,7 @@ public sealed class InboxService(
                 break;
             }
 
+            LogIgnored(watcher);
             try
             {
                 // The group is processed to the end even when a stop arrives meanwhile: committing and
@@ -105,5 +107,14 @@ public sealed class InboxService(
         }
 
         logger.LogInformation("Stopped watching {Inbox}", folders.Inbox);
+    }
+
+    // Once per link or folder while it stays in the inbox (the watcher remembers what it reported).
+    private void LogIgnored(InboxWatcher watcher)
+    {
+        foreach (var ignored in watcher.TakeNewlyIgnored())
+        {
+            logger.LogWarning("{Name} in the inbox is a {Kind}; it is never read (put the export file itself in the inbox)", ignored.Name, ignored.KindText);
+        }
     }
 }

@@ -278,7 +278,10 @@ public sealed class IngestPipeline(
             return new FileOutcome(file.Name, result.Sha256, outcome, [], errors, moved.File.DestinationPath, moved.ReportPath);
         }
 
-        var archived = Archive(prepared, result.Sha256);
+        // A duplicate whose copy the archive already holds is removed from the inbox, not archived twice.
+        var (archived, alreadyArchived) = outcome == IngestOutcome.Duplicate
+            ? mover.MoveDuplicate(file.FullPath, result.Sha256)
+            : (Archive(prepared, result.Sha256), false);
         foreach (var batch in result.Batches)
         {
             // Names as the user reads them (new, revision, yield-low, major), never the program's enum names.
@@ -289,7 +292,14 @@ public sealed class IngestPipeline(
 
         if (outcome == IngestOutcome.Duplicate)
         {
-            logger.LogInformation("{File} is a duplicate ({Sha256}); archived without storing", file.Name, result.Sha256);
+            if (alreadyArchived)
+            {
+                logger.LogInformation("{File} is a duplicate ({Sha256}) of {Archived}, already archived; removed from the inbox without storing", file.Name, result.Sha256, archived.DestinationPath);
+            }
+            else
+            {
+                logger.LogInformation("{File} is a duplicate ({Sha256}); archived without storing", file.Name, result.Sha256);
+            }
         }
 
         // The flags are read back from the store rather than kept from reconciling: a large file's

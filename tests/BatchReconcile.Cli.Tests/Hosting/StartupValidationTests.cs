@@ -91,6 +91,34 @@ public class StartupValidationTests
         Assert.Contains(named, result.Stderr);
     }
 
+    /// <summary>Issue 10 item 9: a value of the wrong type, a bad logging setting or malformed JSON is
+    /// bad input (exit 2, one line naming the setting and the value, or the line and position), never a stack trace.</summary>
+    [Theory]
+    [InlineData("\"SettleSeconds\": 2.0", "\"SettleSeconds\": \"abc\"", "Intake:SettleSeconds = 'abc' is not a number")]
+    [InlineData("\"GroupCommitMaxFiles\": 256", "\"GroupCommitMaxFiles\": 1.5", "Intake:GroupCommitMaxFiles = '1.5' is not a whole number")]
+    [InlineData("\"DigestCatchUpDays\": 7", "\"DigestCatchUpDays\": \"week\"", "Site:DigestCatchUpDays = 'week' is not a whole number")]
+    [InlineData("\"BusyTimeoutSeconds\": 30", "\"BusyTimeoutSeconds\": \"soon\"", "Storage:BusyTimeoutSeconds = 'soon' is not a number")]
+    [InlineData("\"CoverageFactor\": 2.0", "\"CoverageFactor\": \"two\"", "Reconciliation:CoverageFactor = 'two' is not a number")]
+    [InlineData("\"Default\": \"Information\"", "\"Default\": \"Loud\"", "Serilog: The value Loud is not a valid Serilog level")]
+    [InlineData("\"SettleSeconds\": 2.0", "\"SettleSeconds\": 2.0,,", "not valid JSON at line 16, position 26")]
+    [InlineData("\"SettleSeconds\": 2.0", "\"SettleSeconds\": 2.0 \"x\": 1", "not valid JSON at line 16, position 26")]
+    public async Task A_setting_of_the_wrong_type_or_malformed_settings_exit_2_naming_setting_and_value(string good, string bad, string named)
+    {
+        using var temp = new TempFolder();
+        var config = TestConfig.CopyVerbatim(temp.Sub("config"));
+        var settings = Path.Combine(config, "appsettings.json");
+        var text = File.ReadAllText(settings);
+        Assert.Contains(good, text);
+        File.WriteAllText(settings, text.Replace(good, bad, StringComparison.Ordinal));
+
+        var result = await ProgramRunner.RunAsync("check", SampleFile, "--config", config, "--data", temp.Sub("data"));
+
+        Assert.Equal(2, result.ExitCode);
+        Assert.Single(result.Stderr.TrimEnd().Split('\n'));
+        Assert.Contains(named, result.Stderr, StringComparison.Ordinal);
+        Assert.DoesNotContain("   at ", result.Stderr, StringComparison.Ordinal);
+    }
+
     [Fact]
     public async Task A_missing_config_folder_is_bad_input()
     {

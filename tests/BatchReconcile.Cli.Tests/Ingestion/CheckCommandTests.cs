@@ -45,6 +45,23 @@ public class CheckCommandTests
         Assert.Equal(export.Bytes, File.ReadAllBytes(file));
     }
 
+    /// <summary>Issue 10 item 4: "1" and 308 zeros in tonnes made check exit 1 with an internal error.</summary>
+    [Fact]
+    public async Task A_huge_finite_quantity_is_bad_input_with_its_line_and_column_not_an_internal_error()
+    {
+        using var temp = new TempFolder("brc-check");
+        var file = temp.Sub(Benzocaine);
+        ExportText.FromSample(Benzocaine).WithField(2, "quantity", "1" + new string('0', 308)).WithField(2, "unit", "t").WriteTo(file);
+
+        var result = await ProgramRunner.RunAsync("check", file, "--data", temp.Sub("data"));
+
+        Assert.True(result.ExitCode == 2, $"exit {result.ExitCode}; stderr:\n{result.Stderr}");
+        Assert.Single(result.Stderr.TrimEnd().Split('\n'));
+        Assert.Contains("first line 2 column quantity", result.Stderr, StringComparison.Ordinal);
+        Assert.Contains("1,000 t", result.Stderr, StringComparison.Ordinal);
+        Assert.DoesNotContain("internal", result.Stderr + result.Stdout, StringComparison.OrdinalIgnoreCase);
+    }
+
     [Fact]
     public async Task Check_json_of_a_shift_export_reports_the_flags_of_each_batch()
     {

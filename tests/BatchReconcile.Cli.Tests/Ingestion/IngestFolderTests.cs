@@ -8,6 +8,31 @@ public partial class IngestFolderTests
 {
     private const string Benzamide = "2026-11-23T1705_KB3-NB-0158.csv";
 
+    /// <summary>Issue 10 item 11: links and folders in the inbox are never read, and ingest says so.</summary>
+    [Fact]
+    public async Task Ingest_of_a_folder_lists_the_links_and_folders_it_does_not_read()
+    {
+        using var temp = new TempFolder("brc-ingest-ignored");
+        var config = TestConfig.Write(temp.Sub("config"));
+        var folder = temp.Sub("exports");
+        Directory.CreateDirectory(Path.Combine(folder, "old exports"));
+        var elsewhere = temp.Sub("elsewhere.csv");
+        ExportText.FromSample(Benzamide).WriteTo(elsewhere);
+        File.CreateSymbolicLink(Path.Combine(folder, "linked.csv"), elsewhere);
+        var file = Path.Combine(folder, Benzamide);
+        ExportText.FromSample(Benzamide).WithBatchId("E2E-IGN-1").WriteTo(file);
+        File.SetLastWriteTimeUtc(file, DateTime.UtcNow.AddHours(-1));
+
+        var result = await ProgramRunner.RunAsync("ingest", folder, "--config", config, "--data", temp.Sub("data"));
+
+        Assert.True(result.ExitCode == 0, $"exit {result.ExitCode}; stderr:\n{result.Stderr}");
+        Assert.Contains($"{Path.Combine(folder, "linked.csv")}: never read (a symbolic link)", result.Stdout, StringComparison.Ordinal);
+        Assert.Contains($"{Path.Combine(folder, "old exports")}: never read (a folder)", result.Stdout, StringComparison.Ordinal);
+        Assert.EndsWith("1 stored, 2 ignored", result.Stdout.TrimEnd(), StringComparison.Ordinal);
+        Assert.True(File.Exists(elsewhere));
+        Assert.True(File.Exists(Path.Combine(folder, "linked.csv")));
+    }
+
     [Fact]
     public async Task Ingest_of_a_folder_prints_one_line_per_file_in_arrival_order_when_output_is_redirected()
     {

@@ -50,6 +50,87 @@ public sealed class FileMoverTests : IDisposable
         Assert.Equal(["first", "second", "third"], new[] { first, second, third }.Select(File.ReadAllText));
     }
 
+    [Fact]
+    public void A_duplicate_whose_copy_is_archived_is_removed_from_the_inbox_not_archived_as_name_2()
+    {
+        var archived = _mover.MoveToArchive(WriteText("KB3-PZ-0233.csv", "batch,recipe\n")).DestinationPath;
+        // Linked back into the inbox after it was archived: same name, same bytes.
+        var inboxPath = Path.Combine(_inbox, "KB3-PZ-0233.csv");
+        File.Copy(archived, inboxPath);
+
+        var (moved, alreadyArchived) = _mover.MoveDuplicate(inboxPath, FileHash.Sha256Of(inboxPath));
+
+        Assert.True(alreadyArchived);
+        Assert.Equal(archived, moved.DestinationPath);
+        Assert.False(File.Exists(inboxPath));
+        Assert.Equal(["KB3-PZ-0233.csv"], Directory.EnumerateFiles(Path.Combine(_temp.Path, "archive"), "*", SearchOption.AllDirectories).Select(Path.GetFileName));
+    }
+
+    [Fact]
+    public void A_duplicate_found_under_a_numbered_name_in_an_earlier_day_is_recognised()
+    {
+        var earlier = Path.Combine(_temp.Path, "archive", "2026", "11", "02");
+        Directory.CreateDirectory(earlier);
+        File.WriteAllText(Path.Combine(earlier, "daily.csv"), "other content");
+        File.WriteAllText(Path.Combine(earlier, "daily (2).csv"), "the content");
+        File.WriteAllText(Path.Combine(earlier, "daily-extra.csv"), "the content"); // not a variant of the name
+        var inboxPath = WriteText("daily.csv", "the content");
+
+        var (moved, alreadyArchived) = _mover.MoveDuplicate(inboxPath, FileHash.Sha256Of(inboxPath));
+
+        Assert.True(alreadyArchived);
+        Assert.Equal(Path.Combine(earlier, "daily (2).csv"), moved.DestinationPath);
+        Assert.False(File.Exists(inboxPath));
+    }
+
+    [Fact]
+    public void A_duplicate_whose_only_copy_is_in_the_inbox_is_archived()
+    {
+        // As after a crash between storing the file and archiving it: the inbox holds the only copy.
+        var inboxPath = WriteText("late.csv", "stored, never archived");
+        var hash = FileHash.Sha256Of(inboxPath);
+
+        var (moved, alreadyArchived) = _mover.MoveDuplicate(inboxPath, hash);
+
+        Assert.False(alreadyArchived);
+        Assert.Equal(hash, FileHash.Sha256Of(moved.DestinationPath));
+        Assert.False(File.Exists(inboxPath));
+    }
+
+    [Fact]
+    public void Stale_temporaries_of_an_interrupted_run_are_removed_and_nothing_else()
+    {
+        var now = new DateTime(2026, 11, 24, 13, 5, 0, DateTimeKind.Utc);
+        var quarantine = Path.Combine(_temp.Path, "quarantine");
+        var day = Path.Combine(_temp.Path, "archive", "2026", "11", "23");
+        Directory.CreateDirectory(quarantine);
+        Directory.CreateDirectory(day);
+        string Make(string path, DateTime written)
+        {
+            File.WriteAllText(path, "x");
+            File.SetLastWriteTimeUtc(path, written);
+            return path;
+        }
+
+        var guid = Guid.NewGuid().ToString("N");
+        var staleReport = Make(Path.Combine(quarantine, $".bad.csv.report.txt.{guid}.tmp"), now.AddMinutes(-5));
+        var staleCopy = Make(Path.Combine(day, $".big.csv.{Guid.NewGuid():N}.tmp"), now.AddHours(-3));
+        var inProgress = Make(Path.Combine(quarantine, $".other.csv.report.txt.{Guid.NewGuid():N}.tmp"), now.AddSeconds(-10));
+        var notOurs = Make(Path.Combine(quarantine, ".notes.tmp"), now.AddDays(-1));
+        var report = Make(Path.Combine(quarantine, "bad.csv.report.txt"), now.AddDays(-1));
+        var exporterPart = Make(Path.Combine(_inbox, $".export.csv.{Guid.NewGuid():N}.tmp"), now.AddDays(-1)); // the exporter's, in the inbox
+        var probe = Path.Combine(_inbox, ".intake-probe-" + Guid.NewGuid().ToString("N"));
+        Directory.CreateDirectory(probe);
+        Directory.SetLastWriteTimeUtc(probe, now.AddMinutes(-5));
+
+        var removed = _mover.RemoveStaleTemporaries(_inbox, TimeSpan.FromMinutes(1));
+
+        Assert.Equal(new[] { staleReport, staleCopy, probe }.Order(), removed.Order());
+        Assert.All(new[] { staleReport, staleCopy }, p => Assert.False(File.Exists(p)));
+        Assert.False(Directory.Exists(probe));
+        Assert.All(new[] { inProgress, notOurs, report, exporterPart }, p => Assert.True(File.Exists(p), p));
+    }
+
     [Theory]
     [InlineData("a.csv", 2, "a (2).csv")]
     [InlineData("a.csv", 11, "a (11).csv")]

@@ -32,6 +32,49 @@ public sealed class InboxScannerTests : IDisposable
     }
 
     [Fact]
+    public async Task Symbolic_links_and_folders_are_never_read_but_are_listed()
+    {
+        var folder = _temp.Sub("mixed");
+        var target = Write(_temp.Sub("elsewhere"), "real.csv");
+        File.SetLastWriteTimeUtc(Write(folder, "export.csv"), new DateTime(2026, 11, 20, 7, 0, 0, DateTimeKind.Utc));
+        File.CreateSymbolicLink(Path.Combine(folder, "linked.csv"), target);
+        Directory.CreateSymbolicLink(Path.Combine(folder, "linked-folder"), _temp.Sub("elsewhere"));
+        Directory.CreateDirectory(Path.Combine(folder, "2026-11"));
+        Directory.CreateDirectory(Path.Combine(folder, ".hidden")); // hidden names are never read and not listed
+
+        var scan = await InboxScanner.ScanOnceAsync(folder, TimeSpan.Zero, TimeProvider.System, Within.Token());
+
+        Assert.Equal(["export.csv"], scan.Ready.Select(f => f.Name));
+        Assert.Empty(scan.NotReady);
+        Assert.Equal(
+            [new IgnoredEntry("2026-11", IgnoredKind.Folder), new IgnoredEntry("linked-folder", IgnoredKind.SymbolicLink), new IgnoredEntry("linked.csv", IgnoredKind.SymbolicLink)],
+            scan.Ignored);
+        Assert.True(File.Exists(target));
+    }
+
+    [Fact]
+    public void A_link_or_folder_is_reported_once_while_it_stays()
+    {
+        var folder = _temp.Sub("watched");
+        Directory.CreateDirectory(Path.Combine(folder, "sub"));
+        using var watcher = new InboxWatcher(new InboxOptions(folder, TimeSpan.Zero, TimeSpan.FromTicks(1), useFileSystemEvents: false), TimeProvider.System);
+
+        watcher.TakeReady();
+        var first = watcher.TakeNewlyIgnored();
+        watcher.TakeReady();
+        var second = watcher.TakeNewlyIgnored();
+        Directory.Delete(Path.Combine(folder, "sub"));
+        watcher.TakeReady();
+        Directory.CreateDirectory(Path.Combine(folder, "sub"));
+        watcher.TakeReady();
+        var third = watcher.TakeNewlyIgnored();
+
+        Assert.Equal([new IgnoredEntry("sub", IgnoredKind.Folder)], first);
+        Assert.Empty(second);
+        Assert.Equal([new IgnoredEntry("sub", IgnoredKind.Folder)], third); // gone and back: a new sighting
+    }
+
+    [Fact]
     public async Task Files_written_long_ago_are_returned_without_waiting_for_the_settle_interval()
     {
         var folder = _temp.Sub("old");

@@ -53,17 +53,20 @@ public class ExportReaderAcceptanceTests
     [Fact]
     public void Quoted_fields_may_hold_commas_quotes_and_line_breaks()
     {
-        var text = ExportCsv.File(
-            "B1,EST-7,1,S1,charge,NBA,,100,kg,,\"L-7, drum 2\nof 3\",",             // lines 2-3
-            "B1,EST-7,1,S1,waste,,\"mother liquor, \"\"first\"\" crop\",380,kg,,,", // line 4
-            "B1,EST-7,1,S1,analysis,ENB,\" Mother Liquor, \"\"First\"\" Crop \",,,2.5,,"); // line 5
+        // Line breaks only in a column of free text (here an unknown one): identifiers may not hold them.
+        var text = string.Join("\n",
+            ExportCsv.Header + ",remark",
+            "B1,EST-7,1,S1,charge,NBA,,100,kg,,\"L-7, drum 2\",,\"drum 2\nof 3\"",       // lines 2-3
+            "B1,EST-7,1,S1,waste,,\"mother liquor, \"\"first\"\" crop\",380,kg,,,,", // line 4
+            "B1,EST-7,1,S1,analysis,ENB,\" Mother Liquor, \"\"First\"\" Crop \",,,2.5,,,") + "\n"; // line 5
 
         var result = ExportCsv.Read(text);
 
         Assert.True(result.IsValid, string.Join("\n", result.Errors));
         var rows = Assert.Single(result.Batches).Rows;
         Assert.Equal([2, 4, 5], rows.Select(r => r.Line));
-        Assert.Equal("L-7, drum 2\nof 3", rows[0].Lot);
+        Assert.Equal("L-7, drum 2", rows[0].Lot);
+        Assert.Equal("drum 2\nof 3", rows[0].Raw[^1].Value);
         Assert.Equal("mother liquor, \"first\" crop", rows[1].Stream);
     }
 

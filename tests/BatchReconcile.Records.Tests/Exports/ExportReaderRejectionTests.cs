@@ -229,10 +229,11 @@ public class ExportReaderRejectionTests
     [Fact]
     public void Lines_count_the_line_breaks_inside_quoted_fields()
     {
-        var text = ExportCsv.File(
-            "B1,EST-7,1,S1,waste,,\"mother liquor\r\nand washes\",380,kg,,,", // lines 2-3
-            "B1,EST-7,1,S1,charge,NBA,,\"a\nb\nc\",kg,,,",                      // lines 4-6
-            "B1,EST-7,1,S1,charge,NBA,,-1,kg,,,");                            // line 7
+        var text = string.Join("\n",
+            ExportCsv.Header + ",remark",
+            "B1,EST-7,1,S1,waste,,mother liquor,380,kg,,,,\"first\r\nand washes\"", // lines 2-3
+            "B1,EST-7,1,S1,charge,NBA,,\"a\nb\nc\",kg,,,,",                          // lines 4-6
+            "B1,EST-7,1,S1,charge,NBA,,-1,kg,,,,") + "\n";                        // line 7
 
         var result = ExportCsv.Read(text);
 

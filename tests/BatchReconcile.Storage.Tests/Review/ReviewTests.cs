@@ -61,6 +61,16 @@ public sealed class ReviewTests
     [InlineData(ReviewState.InReview, "A. Chen", " \n ", null, null, ReviewRefusal.NoteMissing, "a note is required")]
     [InlineData(ReviewState.InReview, "", "checked", null, null, ReviewRefusal.ReviewerMissing, "a reviewer name is required (--by NAME)")]
     [InlineData(ReviewState.InReview, "System", "checked", null, null, ReviewRefusal.ReviewerMissing, "kept for the program's own entries")]
+    // Look-alikes of the reserved name (issue 10 item 12): Cyrillic dze, Cyrillic u and ie, Greek capitals,
+    // full-width and mathematical bold letters (NFKC), a zero-width space, Latin small capitals.
+    [InlineData(ReviewState.InReview, "\u0455ystem", "checked", null, null, ReviewRefusal.ReviewerMissing, "kept for the program's own entries")]
+    [InlineData(ReviewState.InReview, "s\u0443st\u0435m", "checked", null, null, ReviewRefusal.ReviewerMissing, "kept for the program's own entries")]
+    [InlineData(ReviewState.InReview, "SY\u0405\u03A4\u0395\u039C", "checked", null, null, ReviewRefusal.ReviewerMissing, "kept for the program's own entries")]
+    [InlineData(ReviewState.InReview, "\uFF53\uFF59\uFF53\uFF54\uFF45\uFF4D", "checked", null, null, ReviewRefusal.ReviewerMissing, "kept for the program's own entries")]
+    [InlineData(ReviewState.InReview, "\U0001D42C\U0001D432\U0001D42C\U0001D42D\U0001D41E\U0001D426", "checked", null, null, ReviewRefusal.ReviewerMissing, "kept for the program's own entries")]
+    [InlineData(ReviewState.InReview, "sys\u200Btem", "checked", null, null, ReviewRefusal.ReviewerMissing, "kept for the program's own entries")]
+    [InlineData(ReviewState.InReview, "\uA731\u028F\uA731\u1D1B\u1D07\u1D0D", "checked", null, null, ReviewRefusal.ReviewerMissing, "kept for the program's own entries")]
+    [InlineData(ReviewState.InReview, "A. Chen\u202E", "checked", null, null, ReviewRefusal.BadText, "the reviewer name has a bidirectional control character (U+202E) at position 8")]
     [InlineData(ReviewState.InReview, "A. Chen", "bell\u0007here", null, null, ReviewRefusal.BadText, "the note has a control character (U+0007) at position 5")]
     [InlineData(ReviewState.InReview, "A.\tChen", "checked", null, null, ReviewRefusal.BadText, "the reviewer name has a control character (U+0009) at position 3")]
     public void Incomplete_or_bad_input_is_refused_and_nothing_is_written(
@@ -78,6 +88,17 @@ public sealed class ReviewTests
         Assert.Equal(ReviewState.Open, Assert.Single(store.ListFlags()).Review.State);
         Assert.Equal(auditBefore, Db.Count(store.Connection, "audit_event"));
     }
+
+    [Theory]
+    [InlineData("system", true)]
+    [InlineData("  SYSTEM ", true)]
+    [InlineData("\u0455\u0443\u0455t\u0435m", true)]
+    [InlineData("systems", false)]
+    [InlineData("A. Chen", false)]
+    [InlineData("\u041E\u043B\u044C\u0433\u0430 \u0421\u043C\u0438\u0440\u043D\u043E\u0432\u0430", false)] // a Cyrillic name stays a name
+    [InlineData("J\u00FCrgen M\u00FCller", false)]
+    public void Only_the_reserved_name_and_its_look_alikes_are_reserved(string name, bool reserved) =>
+        Assert.Equal(reserved, ReviewRules.IsReservedName(name, "system"));
 
     [Fact]
     public void An_unknown_flag_id_is_refused()

@@ -23,7 +23,11 @@ internal sealed class ExportErrorList(string fileName, int cap)
         }
 
         var lineNumber = (int)Math.Clamp(line, 0, int.MaxValue);
-        _errors.Add(new ExportError(FileName, lineNumber, column, value, reason));
+        // A value is quoted by its first characters only: a huge field must not be copied into the
+        // report, the database and the log. The reason is the program's own text (it quotes at most a
+        // capped field), cut as well in case a value reached it.
+        _errors.Add(new ExportError(FileName, lineNumber, column,
+            SafeText.Prefix(value, ExportLimits.QuotedValueChars), SafeText.Prefix(reason, 4 * ExportLimits.MaxFieldChars)));
     }
 
     /// <summary>In file order (a batch's closing checks find errors after later lines were read).</summary>

@@ -41,6 +41,7 @@ internal sealed class ExportHeader
         var firstSeen = new Dictionary<string, int>(StringComparer.OrdinalIgnoreCase);
         var warnings = new List<string>();
         var duplicates = new List<(string Column, string Value, string Reason)>();
+        var refused = new List<(string Value, string Reason)>();
 
         for (var i = 0; i < names.Length; i++)
         {
@@ -49,6 +50,15 @@ internal sealed class ExportHeader
             {
                 // Spreadsheets often leave a trailing separator on the header; an unnamed column holds nothing we read.
                 warnings.Add(Invariant($"unnamed column {i + 1} ignored"));
+                continue;
+            }
+
+            if (name.Length > ExportLimits.MaxFieldChars || SafeText.IndexOfRefused(name) >= 0)
+            {
+                // Never carried into warnings (which every batch of the file stores).
+                refused.Add((headers[i], name.Length > ExportLimits.MaxFieldChars
+                    ? Invariant($"header name {i + 1} is {name.Length:N0} characters long; a field may have at most {ExportLimits.MaxFieldChars:N0}")
+                    : Invariant($"header name {i + 1} contains the control character {SafeText.Name(name[SafeText.IndexOfRefused(name)])}; column names must not contain control or bidirectional-control characters")));
                 continue;
             }
 
@@ -86,12 +96,17 @@ internal sealed class ExportHeader
             errors.Add(1, column, value, reason);
         }
 
+        foreach (var (value, reason) in refused)
+        {
+            errors.Add(1, "", value, reason);
+        }
+
         foreach (var column in missing)
         {
             errors.Add(1, column, "", $"required column '{column}' is missing from the header (required: {string.Join(", ", ExportColumns.Required)})");
         }
 
-        return duplicates.Count == 0 && missing.Count == 0 ? new ExportHeader(names, known, warnings) : null;
+        return duplicates.Count == 0 && missing.Count == 0 && refused.Count == 0 ? new ExportHeader(names, known, warnings) : null;
     }
 
     /// <summary>The contract's spelling of a column name, or the name as given when it is not a contract column.</summary>

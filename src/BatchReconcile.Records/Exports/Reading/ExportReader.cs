@@ -22,7 +22,9 @@ namespace BatchReconcile.Records.Exports.Reading;
 /// <item>Codes (recipe, step, material) match without case and come back spelled as the definitions
 /// spell them; batch ids are trimmed and compared exactly (case-sensitive).</item>
 /// <item>Rows of separators only (",,,,") and empty lines are skipped; an unnamed header column is a warning.</item>
-/// <item>Bytes that are not UTF-8 are an error (U+FFFD in a value); a UTF-16 file with a BOM is transcoded.</item>
+/// <item>Encoding and size (<see cref="ExportInputGuard"/>, <see cref="ExportLimits"/>): bytes that are not UTF-8 are
+/// an error naming line and column (a correctly encoded U+FFFD is accepted); a UTF-16 byte-order mark, CR-only line
+/// ends, NUL bytes, a file that is not text and a line or row past 1 MiB stop the reading with one error.</item>
 /// <item>Batches need not be contiguous. A file (or seekable stream) is read twice: first only to find
 /// where each batch ends, so that memory holds the open batches only (one, when batches are contiguous),
 /// plus one small entry per batch id.</item>
@@ -70,13 +72,16 @@ public static class ExportReader
 
         // The first pass finds where each batch ends, so batches need not be contiguous to be streamed.
         Dictionary<string, long>? lastRows;
-        using (var first = CsvReader.FromFile(path, ExportScanner.Options(static _ => { })))
+        using (var file = OpenFile(path))
+        using (var first = CsvReader.Create(new ExportInputGuard(file), ExportScanner.Options(static _ => { })))
         {
             lastRows = ExportScanner.FindLastRows(first);
         }
 
-        var scanner = new ExportScanner(fileName, catalog, siteZone, onBatch, errors, lastRows);
-        using var reader = CsvReader.FromFile(path, ExportScanner.Options(scanner.OnMalformed));
+        using var second = OpenFile(path);
+        var guard = new ExportInputGuard(second);
+        var scanner = new ExportScanner(fileName, catalog, siteZone, onBatch, errors, lastRows, guard);
+        using var reader = CsvReader.Create(guard, ExportScanner.Options(scanner.OnMalformed));
         return scanner.Run(reader);
     }
 
@@ -93,7 +98,7 @@ public static class ExportReader
         if (stream.CanSeek)
         {
             var start = stream.Position;
-            using (var first = CsvReader.Create(stream, ExportScanner.Options(static _ => { }), leaveOpen: true))
+            using (var first = CsvReader.Create(new ExportInputGuard(stream), ExportScanner.Options(static _ => { })))
             {
                 lastRows = ExportScanner.FindLastRows(first);
             }
@@ -101,10 +106,15 @@ public static class ExportReader
             stream.Position = start;
         }
 
-        var scanner = new ExportScanner(fileName, catalog, siteZone, onBatch, errors, lastRows);
-        using var reader = CsvReader.Create(stream, ExportScanner.Options(scanner.OnMalformed), leaveOpen: true);
+        var guard = new ExportInputGuard(stream);
+        var scanner = new ExportScanner(fileName, catalog, siteZone, onBatch, errors, lastRows, guard);
+        using var reader = CsvReader.Create(guard, ExportScanner.Options(scanner.OnMalformed));
         return scanner.Run(reader);
     }
+
+    // Shared with other readers, as CsvReader.FromFile opens it; read front to back.
+    private static FileStream OpenFile(string path) =>
+        new(path, FileMode.Open, FileAccess.Read, FileShare.Read, bufferSize: 1, FileOptions.SequentialScan);
 
     private static ExportReadResult Collect(ExportScanResult scan, List<BatchRecord> batches) =>
         scan.IsValid

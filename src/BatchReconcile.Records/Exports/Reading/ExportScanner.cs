@@ -18,9 +18,17 @@ internal sealed class ExportScanner(
     TimeZoneInfo siteZone,
     Action<BatchRecord> onBatch,
     ExportErrorList errors,
-    Dictionary<string, long>? lastRowOfBatch)
+    Dictionary<string, long>? lastRowOfBatch,
+    ExportInputGuard? guard = null)
 {
     private const long Closed = -1;
+
+    /// <summary>The columns that carry identifiers, refused with control or bidirectional-control characters (<see cref="SafeText"/>).</summary>
+    private static readonly string[] IdentifierColumns =
+    [
+        ExportColumns.Batch, ExportColumns.Recipe, ExportColumns.RecipeVersion, ExportColumns.Step,
+        ExportColumns.Entry, ExportColumns.Material, ExportColumns.Stream, ExportColumns.Lot,
+    ];
 
     private static readonly (string Text, EntryKind Kind)[] Entries =
     [
@@ -42,6 +50,7 @@ internal sealed class ExportScanner(
     private int _peakBatchesHeld;
     private int _delivered;
     private long _dataRows;
+    private bool _faultReported;
 
     /// <summary>Options of both passes: the contract's dialect, nothing detected or guessed.</summary>
     public static CsvReaderOptions Options(Action<CsvMalformedRecord>? onMalformed) => CsvReaderOptions.Default with
@@ -57,6 +66,9 @@ internal sealed class ExportScanner(
         MalformedData = CsvMalformedDataHandling.Recover,
         FieldCountMismatch = CsvFieldCountHandling.Allow,
         OnMalformedRecord = onMalformed,
+
+        // A row with quoted line breaks can span many lines of at most 1 MiB each: bound the row as well.
+        MaxRecordSize = ExportLimits.MaxLineBytes,
     };
 
     /// <summary>First pass: the row number of each batch's last row, or null when the header has no batch column.</summary>
@@ -78,13 +90,20 @@ internal sealed class ExportScanner(
         }
 
         var last = new Dictionary<string, long>(StringComparer.Ordinal);
-        while (reader.Read())
+        try
         {
-            var key = BatchKey(reader, batchIndex);
-            if (key.Length > 0)
+            while (reader.Read())
             {
-                last[key] = reader.RowNumber;
+                var key = BatchKey(reader, batchIndex);
+                if (key.Length > 0 && key.Length <= ExportLimits.MaxFieldChars)
+                {
+                    last[key] = reader.RowNumber;
+                }
             }
+        }
+        catch (CsvFormatException)
+        {
+            // A row past the size limit: the second pass stops at the same place and reports it.
         }
 
         return last;
@@ -116,19 +135,47 @@ internal sealed class ExportScanner(
 
     public ExportScanResult Run(CsvReader reader)
     {
-        _header = ExportHeader.Analyze(reader.Headers, errors, out var semicolon);
+        IReadOnlyList<string> headers;
+        try
+        {
+            headers = reader.Headers;
+        }
+        catch (CsvFormatException e)
+        {
+            AddFault();
+            errors.Add(Math.Max(1, e.LineNumber), "", "", TooLong);
+            return Result();
+        }
+
+        if (guard?.Fault is { } fault && guard.LinesPassed == 0)
+        {
+            // Nothing reached the CSV reader: the one thing to say is why.
+            errors.Add(fault.Line, "", fault.Value, fault.Reason);
+            return Result();
+        }
+
+        _header = ExportHeader.Analyze(headers, errors, out var semicolon);
         if (_headerMalformed is { } bad && !semicolon)
         {
             errors.Add(bad.Line, "", bad.Raw, "header: " + bad.Reason);
         }
 
+        if (guard is not null && guard.IsNotUtf8(1, 1))
+        {
+            foreach (var name in headers.Where(h => h.Contains('\uFFFD', StringComparison.Ordinal)))
+            {
+                errors.Add(1, ExportHeader.ContractName(name.Trim()), name, "the header has bytes that are not valid UTF-8; export the file as UTF-8");
+            }
+        }
+
         if (_header is null)
         {
+            AddFault();
             return Result();
         }
 
         var batchIndex = _header.IndexOf(ExportColumns.Batch);
-        while (reader.Read())
+        while (TryRead(reader))
         {
             var fields = new string[reader.FieldCount];
             for (var i = 0; i < fields.Length; i++)
@@ -162,12 +209,39 @@ internal sealed class ExportScanner(
             Close(batch.Id);
         }
 
+        AddFault();
         if (_dataRows == 0 && errors.Count == 0)
         {
             errors.Add(1, "", "", "the file has a header but no data rows");
         }
 
         return Result();
+    }
+
+    private const string TooLong =
+        "this row is longer than 1 MiB (1,048,576 bytes), the longest row the export format allows (a quoted value that is never closed makes one); reading stopped here";
+
+    private bool TryRead(CsvReader reader)
+    {
+        try
+        {
+            return reader.Read();
+        }
+        catch (CsvFormatException e)
+        {
+            errors.Add(Math.Max(1, e.LineNumber), "", "", TooLong);
+            return false;
+        }
+    }
+
+    /// <summary>Reports what stopped the guard, once the rows before it are checked.</summary>
+    private void AddFault()
+    {
+        if (guard?.Fault is { } fault && !_faultReported)
+        {
+            _faultReported = true;
+            errors.Add(fault.Line, "", fault.Value, fault.Reason);
+        }
     }
 
     private ExportScanResult Result() =>
@@ -197,12 +271,53 @@ internal sealed class ExportScanner(
 
         void Error(string column, string value, string reason) => errors.Add(line, column, value, reason);
 
+        // Lines this row spans (quoted values may hold line breaks).
+        var lastLine = line + fields.Sum(f => (long)f.AsSpan().Count('\n'));
+        if (guard is not null && guard.IsNotUtf8(line, lastLine))
+        {
+            var named = false;
+            for (var i = 0; i < fields.Length; i++)
+            {
+                if (fields[i].Contains('\uFFFD', StringComparison.Ordinal))
+                {
+                    named = true;
+                    Error(ExportHeader.ContractName(header.Names[i]), fields[i], "contains bytes that are not valid UTF-8; export the file as UTF-8");
+                }
+            }
+
+            if (!named)
+            {
+                Error("", "", "the row has bytes that are not valid UTF-8; export the file as UTF-8");
+            }
+        }
+
+        // Sizes and characters first: a value past them is not read any further (nor quoted whole).
+        var refused = false;
         for (var i = 0; i < fields.Length; i++)
         {
-            if (fields[i].Contains('\uFFFD', StringComparison.Ordinal))
+            if (fields[i].Length > ExportLimits.MaxFieldChars)
             {
-                Error(ExportHeader.ContractName(header.Names[i]), fields[i], "contains bytes that are not valid UTF-8; export the file as UTF-8");
+                refused = true;
+                Error(ExportHeader.ContractName(header.Names[i]), fields[i],
+                    Invariant($"the value is {fields[i].Length:N0} characters long; a field may have at most {ExportLimits.MaxFieldChars:N0}"));
             }
+        }
+
+        foreach (var column in IdentifierColumns)
+        {
+            var value = Field(column);
+            var at = SafeText.IndexOfRefused(value);
+            if (at >= 0 && value.Length <= ExportLimits.MaxFieldChars)
+            {
+                refused = true;
+                Error(column, value,
+                    Invariant($"{column} contains the control character {SafeText.Name(value[at])} at character {at + 1}; identifiers and labels must not contain control or bidirectional-control characters"));
+            }
+        }
+
+        if (refused)
+        {
+            return;
         }
 
         // batch
@@ -383,6 +498,13 @@ internal sealed class ExportScanner(
             else if (!MassUnit.TryParse(unitText, out unit))
             {
                 Error(ExportColumns.Unit, unitText, $"unknown unit '{unitText}'; use kg, g, mg, t or lb");
+            }
+            else if (quantity is { } given && unit.ToKilograms(given) is var kg && !(kg <= ExportLimits.MaxRowKilograms))
+            {
+                Error(ExportColumns.Quantity, quantityText, double.IsFinite(kg)
+                    ? Invariant($"{given:G6} {unit.Symbol} is {kg:G6} kg, more than the {ExportLimits.MaxRowKilograms:N0} kg (1,000 t) one row may record; check the value and its unit")
+                    : Invariant($"{given:G6} {unit.Symbol} is too large to convert to kg; one row may record at most {ExportLimits.MaxRowKilograms:N0} kg (1,000 t)"));
+                quantity = null;
             }
         }
 

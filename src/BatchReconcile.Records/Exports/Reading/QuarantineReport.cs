@@ -17,7 +17,7 @@ public static class QuarantineReport
 
         var text = new StringBuilder();
         text.Append("# Export quarantined: ").AppendLine(Cell(fileName)).AppendLine();
-        text.Append("- File: ").AppendLine(fileName);
+        text.Append("- File: ").AppendLine(SafeText.Escape(fileName));
         if (!string.IsNullOrEmpty(sha256))
         {
             text.Append("- SHA-256: ").AppendLine(sha256);
@@ -55,11 +55,12 @@ public static class QuarantineReport
     private static string Shorten(string value) =>
         value.Length <= MaxValueLength ? value : string.Concat(value.AsSpan(0, MaxValueLength), "...");
 
-    // A cell must stay on one line and must not split the table.
+    // A cell must stay on one line and must not split the table; other control and bidirectional
+    // characters are escaped (SafeText), so that the report is safe to print on a terminal.
     private static string Cell(string text) =>
-        text.Replace("\\", "\\\\", StringComparison.Ordinal)
+        SafeText.Escape(text.Replace("\\", "\\\\", StringComparison.Ordinal)
             .Replace("|", "\\|", StringComparison.Ordinal)
             .Replace("\r\n", "\u21B5", StringComparison.Ordinal)
             .Replace("\n", "\u21B5", StringComparison.Ordinal)
-            .Replace("\r", "\u21B5", StringComparison.Ordinal);
+            .Replace("\r", "\u21B5", StringComparison.Ordinal));
 }
