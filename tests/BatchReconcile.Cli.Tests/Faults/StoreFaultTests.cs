@@ -30,8 +30,10 @@ public sealed class StoreFaultTests
         await sandbox.WaitUntilTakenAsync(1, service);
 
         // A person with the sqlite3 shell holds the write lock for 6 s, six times the busy timeout.
-        using var holder = Sqlite3(sandbox.Data.Database, "BEGIN EXCLUSIVE;\n.shell sleep 6\nCOMMIT;\n");
-        await Task.Delay(TimeSpan.FromMilliseconds(500));
+        // The shell waits for the lock itself (the service may be writing a digest) and says when it holds it.
+        using var holder = Sqlite3(sandbox.Data.Database, ".timeout 30000\nBEGIN EXCLUSIVE;\nSELECT 'locked';\n.shell sleep 6\nCOMMIT;\n");
+        var said = await holder.StandardOutput.ReadLineAsync().WaitAsync(ServiceSandbox.Patience);
+        Assert.Equal("locked", said);
         sandbox.Drop("second.csv", ExportText.FromSample(Benzamide).WithBatchId("F-LOCK-2"));
         await Poll.UntilAsync(() => service.Stderr.Contains("The database refused a group", StringComparison.Ordinal), ServiceSandbox.Patience, () => service.Stderr);
 
@@ -155,7 +157,7 @@ public sealed class StoreFaultTests
 
     private static Process Sqlite3(string database, string script)
     {
-        var start = new ProcessStartInfo("sqlite3") { RedirectStandardInput = true, RedirectStandardError = true, UseShellExecute = false };
+        var start = new ProcessStartInfo("sqlite3") { RedirectStandardInput = true, RedirectStandardOutput = true, RedirectStandardError = true, UseShellExecute = false };
         start.ArgumentList.Add(database);
         var process = Process.Start(start) ?? throw new InvalidOperationException("the sqlite3 shell is needed: apt-get install sqlite3");
         process.StandardInput.Write(script);
