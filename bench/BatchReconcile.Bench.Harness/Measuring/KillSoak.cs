@@ -25,6 +25,7 @@ internal sealed class KillSoak(string repo, string work, int kills, int filesPer
             Directory.Delete(root, recursive: true);
         }
 
+        Directory.CreateDirectory(root);
         var app = Path.Combine(root, "app");
         Log($"publishing the program (Release, ReadyToRun) into {app}");
         var (_, exit, _) = ProcessRun.Timed(Path.Combine(root, "publish.out"), Path.Combine(root, "publish.err"),
@@ -49,6 +50,7 @@ internal sealed class KillSoak(string repo, string work, int kills, int filesPer
         Directory.CreateDirectory(inbox);
         var random = new Random(seed);
         var next = 0;
+        var midBacklog = 0;
         for (var k = 1; k <= kills; k++)
         {
             foreach (var file in staged.Skip(next).Take(filesPerRound))
@@ -59,6 +61,12 @@ internal sealed class KillSoak(string repo, string work, int kills, int filesPer
             next += filesPerRound;
             using var service = ProcessRun.Start(Path.Combine(root, "run.out"), Path.Combine(root, $"run.err"), "dotnet", dll, "run", "--config", config, "--data", data);
             Thread.Sleep(TimeSpan.FromMilliseconds(random.Next(300, 2500)));
+            // Counted before the kill: a kill with files still waiting can land inside a group commit or a move.
+            if (Directory.EnumerateFiles(inbox).Any(f => !Path.GetFileName(f).StartsWith('.')))
+            {
+                midBacklog++;
+            }
+
             service.Kill();
             service.WaitForExit();
             if (k % 10 == 0)
@@ -102,11 +110,11 @@ internal sealed class KillSoak(string repo, string work, int kills, int filesPer
         var duplicated = twice + filesTakenTwice + Math.Max(0, archived - set.Files);
         var summary = string.Create(Inv,
             $"kills {kills}, batches {stored.Count - extra} stored once, {lost} lost, {duplicated} duplicated, audit {(auditIntact ? "intact" : "BROKEN")}" +
-            $" (files {set.Files}: {archived} archived, {quarantined} quarantined, {waiting} still in the inbox)");
+            $" ({midBacklog} kills with files still waiting; files {set.Files}: {archived} archived, {quarantined} quarantined, {waiting} still in the inbox)");
         Console.WriteLine(summary);
         var result = new JsonObject
         {
-            ["kills"] = kills, ["files"] = set.Files, ["batches"] = expected.Count, ["stored"] = stored.Count, ["lost"] = lost,
+            ["kills"] = kills, ["killsWithFilesWaiting"] = midBacklog, ["files"] = set.Files, ["batches"] = expected.Count, ["stored"] = stored.Count, ["lost"] = lost,
             ["duplicated"] = duplicated, ["archived"] = archived, ["quarantined"] = quarantined, ["waiting"] = waiting, ["auditIntact"] = auditIntact,
             ["at"] = DateTimeOffset.UtcNow.ToString("yyyy-MM-dd'T'HH:mm'Z'", Inv), ["summary"] = summary,
         };
