@@ -14,7 +14,7 @@ namespace BatchReconcile.Digest.Rendering;
 /// </summary>
 public static class HtmlDigestRenderer
 {
-    private const string Style = """
+    internal const string Style = """
         :root { color-scheme: light; }
         * { box-sizing: border-box; }
         body { margin: 0 auto; max-width: 60rem; padding: 1.5rem; color: #1f1f1f; background: #ffffff;
