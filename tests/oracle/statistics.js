@@ -12,8 +12,18 @@
 // that tail by Newton's method started from jstat's studentt.inv. jstat's raw values are reported too,
 // and the C# test holds them to a looser tolerance.
 'use strict';
-const ss = require('simple-statistics');
-const { jStat } = require('jstat');
+function load(name) {
+  try {
+    return require(name);
+  } catch (error) {
+    process.stderr.write(`npm package ${name} is not installed (${error.code}): run \`npm ci --prefix tests/oracle\` from the repository root\n`);
+    process.exit(1);
+  }
+}
+
+// Loaded once stdin has been read, so that a missing package is reported rather than a broken pipe.
+let ss;
+let jStat;
 
 // ∫_0^c f(u, c - u) du by tanh-sinh quadrature; each level halves the step and adds the new nodes.
 function tanhSinh(f, c) {
@@ -116,6 +126,8 @@ function main() {
 }
 
 function run(input) {
+  ss = load('simple-statistics');
+  ({ jStat } = load('jstat'));
   const { cases } = JSON.parse(input);
   const results = cases.map((c) => {
     const n = c.a.length;
@@ -139,4 +151,8 @@ function run(input) {
 }
 
 if (require.main === module) main();
+else {
+  ss = load('simple-statistics');
+  ({ jStat } = load('jstat'));
+}
 module.exports = { tail, quantile };
