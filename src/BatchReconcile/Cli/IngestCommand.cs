@@ -27,7 +27,8 @@ public static class IngestCommand
             var files = Collect(parse.GetRequiredValue(paths), TimeSpan.FromSeconds(intake.SettleSeconds), time, stderr, ignored);
             var pipeline = host.Services.GetRequiredService<IngestPipeline>();
             var asJson = parse.GetValue(json);
-            var outcomes = Run(pipeline, files, intake.GroupCommitMaxFiles, asJson ? stderr : stdout, showProgress: !asJson && !Console.IsOutputRedirected);
+            var left = new List<string>();
+            var outcomes = Run(pipeline, files, intake.GroupCommitMaxFiles, asJson ? stderr : stdout, showProgress: !asJson && !Console.IsOutputRedirected, left);
             // A file for a day whose digest exists makes that digest stale: it is rewritten now, not at the service's next pass.
             var rewritten = host.Services.GetRequiredService<DigestWriter>().RewriteStale();
             if (asJson)
@@ -51,14 +52,34 @@ public static class IngestCommand
                     $"digest of {digest.Day:yyyy-MM-dd} rewritten as issue {digest.Issue} ({digest.Reason}): {digest.Files[0]}");
             }
 
-            return outcomes.Any(o => o.Outcome == IngestOutcome.Quarantined) ? ExitCodes.CompletedWithQuarantine : ExitCodes.Success;
+            foreach (var name in left)
+            {
+                stderr.WriteLine($"batchreconcile: {SafeText.Escape(name)} changed each of the {IngestPipeline.MaxReads} times it was read; nothing of it was stored and it is left where it is (ingest it again once it is complete)");
+            }
+
+            return left.Count > 0 ? ExitCodes.UnexpectedFailure
+                : outcomes.Any(o => o.Outcome == IngestOutcome.Quarantined) ? ExitCodes.CompletedWithQuarantine : ExitCodes.Success;
         }));
         return command;
     }
 
     /// <summary>Processes the files in groups; on a terminal shows a progress bar, otherwise one plain line per file.</summary>
-    public static IReadOnlyList<FileOutcome> Run(IngestPipeline pipeline, IReadOnlyList<ReadyFile> files, int groupSize, TextWriter lines, bool showProgress)
+    /// <param name="left">Receives the names of files that changed each time they were read (nothing of them stored or moved).</param>
+    public static IReadOnlyList<FileOutcome> Run(IngestPipeline pipeline, IReadOnlyList<ReadyFile> files, int groupSize, TextWriter lines, bool showProgress, List<string>? left = null)
     {
+        IReadOnlyList<FileOutcome> Group(ReadyFile[] group)
+        {
+            try
+            {
+                return pipeline.Process(group);
+            }
+            catch (FilesStillChangingException e) when (left is not null)
+            {
+                left.AddRange(e.Left);
+                return e.Done;
+            }
+        }
+
         var outcomes = new List<FileOutcome>(files.Count);
         var groups = files.Chunk(groupSize).ToList();
         if (showProgress && files.Count > 1)
@@ -68,7 +89,7 @@ public static class IngestCommand
                 var task = ctx.AddTask("ingesting", maxValue: files.Count);
                 foreach (var group in groups)
                 {
-                    outcomes.AddRange(pipeline.Process(group));
+                    outcomes.AddRange(Group(group));
                     task.Increment(group.Length);
                 }
             });
@@ -77,7 +98,7 @@ public static class IngestCommand
 
         foreach (var group in groups)
         {
-            foreach (var outcome in pipeline.Process(group))
+            foreach (var outcome in Group(group))
             {
                 outcomes.Add(outcome);
                 lines.WriteLine($"[{outcomes.Count}/{files.Count}] {SafeText.Escape(outcome.File)}: {outcome.Outcome.ToText()}");

@@ -45,7 +45,8 @@ public sealed class IngestPipeline(
     /// store writes the batches of the files before them; the store still takes them one by one, in order.</para>
     /// <para>A file whose bytes change while it is read is not stored at all and is read again, with its new
     /// content, up to <see cref="MaxReads"/> times; a file still changing then stays in the inbox
-    /// (<see cref="IOException"/>; the service takes it again later).</para></remarks>
+    /// (<see cref="FilesStillChangingException"/>, which carries the outcomes of the other files; the service
+    /// takes it again later).</para></remarks>
     public IReadOnlyList<FileOutcome> Process(IReadOnlyList<ReadyFile> files, CancellationToken cancellation = default)
     {
         var outcomes = ProcessOnce(files, cancellation).ToArray();
@@ -62,7 +63,7 @@ public sealed class IngestPipeline(
         var still = Enumerable.Range(0, files.Count).Where(i => outcomes[i] is null).Select(i => files[i].Name).ToList();
         if (still.Count > 0)
         {
-            throw new IOException($"{string.Join(", ", still)} changed each of the {MaxReads} times it was read; left in the inbox to settle");
+            throw new FilesStillChangingException(outcomes.OfType<FileOutcome>().ToList(), still);
         }
 
         return outcomes!;

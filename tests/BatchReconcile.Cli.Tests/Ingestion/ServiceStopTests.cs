@@ -28,7 +28,9 @@ public class ServiceStopTests(ITestOutputHelper output)
     [Fact]
     public async Task Sigterm_during_a_backlog_exits_0_and_leaves_every_file_either_stored_and_archived_or_untouched_in_the_inbox()
     {
-        const int count = 60;
+        // Enough files that the stop lands inside the backlog even when this machine is busy and the
+        // service has taken many groups before the signal arrives (60 files were once all done first).
+        const int count = 300;
         using var sandbox = new ServiceSandbox(groupCommitMaxFiles: 4);
         var names = WriteBacklog(sandbox, count, "term");
         using var service = await sandbox.StartAsync(waitUntilWatching: false);
