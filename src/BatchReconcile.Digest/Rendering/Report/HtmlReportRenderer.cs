@@ -141,7 +141,7 @@ public static class HtmlReportRenderer
             foreach (var code in fired)
             {
                 html.Append("<li data-rule=\"").Append(H(code)).Append("\"><strong>").Append(H(ControlChart.Label([code]))).Append("</strong> <code>").Append(H(code)).Append("</code>: ")
-                    .Append(H(data.RuleDescriptions.TryGetValue(code, out var text) ? text : code)).Append(" (")
+                    .Append(H(data.RuleDescriptions.TryGetValue(code, out var text) ? text.TrimEnd('.') : code)).Append(" (")
                     .Append(DigestText.Count(t.Points.Count(p => p.Signals.Contains(code)))).Append(" point(s))</li>\n");
             }
 
