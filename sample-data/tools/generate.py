@@ -3,7 +3,7 @@
 
 Standard library only, deterministic: the same run writes the same bytes.
 
-    python3 sample-data/tools/generate.py            # write sample-data/inbox/*.csv, update README table, print report
+    python3 sample-data/tools/generate.py            # write sample-data/inbox/*.csv and history/*.csv, update README, print report
     python3 sample-data/tools/generate.py --check    # write nothing; exit 1 if any committed file differs
 
 The scenario is data (SCHEDULE, the per-batch dicts below). Each batch is built from a simple plant
@@ -22,6 +22,7 @@ from __future__ import annotations
 
 import math
 import os
+import random
 import re
 import sys
 from dataclasses import dataclass, field
@@ -30,6 +31,7 @@ from datetime import datetime, timedelta, timezone
 HERE = os.path.dirname(os.path.abspath(__file__))
 ROOT = os.path.dirname(HERE)  # sample-data/
 INBOX = os.path.join(ROOT, "inbox")
+HISTORY = os.path.join(ROOT, "history")
 README = os.path.join(ROOT, "README.md")
 
 # --------------------------------------------------------------------------------------------------
@@ -95,17 +97,35 @@ RECIPES = {
     ],
 }
 
+# Version 2 of BZC-410 (config/processes/benzocaine.json, effectiveFrom 2026-10-26): less ethanol in the
+# esterification (about 8.6 instead of about 10 equivalents) and the sulfuric acid charge given a range.
+BZC_V2_FROM = "2026-10-26"
+RECIPES_V2 = {
+    "BZC-410": [
+        Step("BZC-410", "S1", {"NBA": 1, "ETOH": 1}, "ENB", 1, {}, 85, 96, 2.0,
+             {"ETOH": (7.5, 10.0), "H2SO4": (0.08, 0.12)}),
+        RECIPES["BZC-410"][1],
+    ],
+}
+
+
+def recipe_steps(recipe: str, version: int) -> list:
+    return RECIPES_V2[recipe] if version == 2 else RECIPES[recipe]
+
+
 # Site balance settings (config/appsettings.json).
 U_REL, U_ABS, K_COVER, PIW_MAX = 0.001, 0.05, 2.0, 2.0
 
 UNIT_KG = {"kg": 1.0, "g": 1e-3, "mg": 1e-6, "t": 1e3, "lb": 0.45359237}
 CET = timezone(timedelta(hours=1))  # Europe/Berlin in November: UTC+01:00
+CEST = timezone(timedelta(hours=2))  # Europe/Berlin in summer time, until 2026-10-25 03:00 local
 DAY_START_H = 6
 
 
 def at(text: str) -> datetime:
-    """'2026-11-23 06:40' local plant time."""
-    return datetime.strptime(text, "%Y-%m-%d %H:%M").replace(tzinfo=CET)
+    """'2026-11-23 06:40' local plant time (summer time before 2026-10-25 03:00, as Europe/Berlin)."""
+    local = datetime.strptime(text, "%Y-%m-%d %H:%M")
+    return local.replace(tzinfo=CEST if local < datetime(2026, 10, 25, 3, 0) else CET)
 
 
 def fmt(x: float, dec: int) -> str:
@@ -131,6 +151,7 @@ class Row:
     lot: str = ""
     recorded_at: str = ""
     extra: dict = field(default_factory=dict)
+    version: str = "1"
 
     @property
     def kg(self) -> float:
@@ -144,12 +165,13 @@ class Row:
 class StepWriter:
     """Adds rows of one step; every quantity is rounded as printed and the rounded value returned."""
 
-    def __init__(self, batch: str, recipe: str, step: str, t0: datetime):
-        self.batch, self.recipe, self.step, self.t0 = batch, recipe, step, t0
+    def __init__(self, batch: str, recipe: str, step: str, t0: datetime, version: int = 1):
+        self.batch, self.recipe, self.step, self.t0, self.version = batch, recipe, step, t0, str(version)
         self.rows: list[Row] = []
 
     def _time(self, h: float) -> str:
-        return (self.t0 + timedelta(minutes=round(h * 60))).isoformat()
+        t = self.t0 + timedelta(minutes=round(h * 60))
+        return at(t.strftime("%Y-%m-%d %H:%M")).isoformat()
 
     def add(self, entry, material="", kg=None, dec=1, unit="kg", assay=None, assay_dec=1, lot="",
             stream="", h=0.0, qty_text=None) -> float:
@@ -161,7 +183,7 @@ class StepWriter:
             q = fmt(kg / UNIT_KG[unit], dec)
         a = "" if assay is None else (assay if isinstance(assay, str) else fmt(assay, assay_dec))
         row = Row(self.batch, self.recipe, self.step, entry, material, stream, q,
-                  unit if q else "", a, lot, self._time(h))
+                  unit if q else "", a, lot, self._time(h), version=self.version)
         self.rows.append(row)
         return row.kg
 
@@ -198,12 +220,12 @@ def build_bzc(b: dict) -> tuple[list[Row], dict]:
     ethanol, catalyst filtration, ethanol distilled off for reuse, crystallisation from water."""
     bid = b["id"]
     notes = {}
-    s1 = StepWriter(bid, "BZC-410", "S1", at(b["s1_start"]))
+    s1 = StepWriter(bid, "BZC-410", "S1", at(b["s1_start"]), b["version"])
     nba = s1.add("charge", "NBA", b["nba_kg"], assay=b["nba_assay"], lot=b["nba_lot"], h=0.0)
     n_nba = nba * b["nba_assay"] / 100 / M["NBA"]
     etoh = s1.add("charge", "ETOH", b["etoh_eq"] * n_nba * M["ETOH"] / (b["etoh_assay"] / 100),
                   assay=b["etoh_assay"], lot=b["etoh_lot"], h=0.3)
-    h2so4 = s1.add("charge", "H2SO4", 0.10 * n_nba * M["H2SO4"] / 0.98, dec=1, assay=98.0,
+    h2so4 = s1.add("charge", "H2SO4", b["h2so4_eq"] * n_nba * M["H2SO4"] / 0.98, dec=1, assay=98.0,
                    lot=b["h2so4_lot"], h=0.8)
     quench = s1.add("charge", "WATER", round(3.6 * nba, -1), h=9.5)
     if b.get("nahco3_lb"):
@@ -217,7 +239,7 @@ def build_bzc(b: dict) -> tuple[list[Row], dict]:
     unreacted = (1 - b["s1_conv"]) * n_nba  # kmol NBA left (equilibrium)
     n_bicarb = bicarb * 0.995 / M["NAHCO3"]
     # Bicarbonate wash neutralises unreacted acid and catalyst acid held in the cake: CO2 leaves unweighed.
-    co2 = M["CO2"] * min(0.95 * n_bicarb, unreacted + 0.1 * 2 * 0.10 * n_nba)
+    co2 = M["CO2"] * min(0.95 * n_bicarb, unreacted + 0.1 * 2 * b["h2so4_eq"] * n_nba)
     evap = 0.008 * b["lossf"] * etoh  # ethanol vapour to the vent condenser / scrubber during quench and filtration
     holdup = 0.001 * b["lossf"] * m_in
     enb_pure = b["s1_yield"] / 100 * theo
@@ -243,7 +265,7 @@ def build_bzc(b: dict) -> tuple[list[Row], dict]:
     if b.get("s2_missing"):
         return rows, notes
 
-    s2 = StepWriter(bid, "BZC-410", "S2", at(b["s2_start"]))
+    s2 = StepWriter(bid, "BZC-410", "S2", at(b["s2_start"]), b["version"])
     enb_in = 0.0
     for i, (lot, d) in enumerate(enb_lots):
         enb_in += s2.add("charge", "ENB", d, assay=b["enb_assay"], lot=lot, h=0.0 + 0.1 * i)
@@ -385,7 +407,7 @@ BUILDERS = {"BZC-410": build_bzc, "PPZ-220": build_ppz, "NBB-150": build_nbb}
 # The scenario
 # --------------------------------------------------------------------------------------------------
 
-BZC_COMMON = dict(nba_assay=99.6, etoh_assay=99.8, s1_conv=0.955, s1_yield=92.4, enb_assay=99.4,
+BZC_COMMON = dict(version=1, h2so4_eq=0.10, nba_assay=99.6, etoh_assay=99.8, s1_conv=0.955, s1_yield=92.4, enb_assay=99.4,
                   s2_conv=0.998, s2_yield=94.2, bzc_assay=99.6,
                   nahco3_kg=20.0, h2so4_lot="SA-2610-044", pdc_lot="PDC-2609-007", h2_lot="H2-BUNDLE-2611-04")
 
@@ -409,6 +431,11 @@ def bzc(**kw):
     varied = dict(etoh_eq=spread(bid, 1, 9.4, 11.2), h2_eq=spread(bid, 2, 3.06, 3.22),
                   s1_ml_loss=spread(bid, 3, 0.9, 1.3), s2_ml_loss=spread(bid, 4, 0.9, 1.4),
                   lossf=spread(bid, 5, 0.7, 1.4))
+    if kw.get("version") == 2:
+        # Version 2: less ethanol (the ester crystallises from a less ethanolic quench, so less stays in the mother
+        # liquor) and the acid charge held to 0.10 equivalents within 0.08-0.12.
+        varied.update(etoh_eq=spread(bid, 1, 8.2, 9.0), s1_ml_loss=spread(bid, 3, 0.55, 0.85),
+                      h2so4_eq=spread(bid, 6, 0.095, 0.105, 3))
     return {"recipe": "BZC-410", **BZC_COMMON, **varied, **kw}
 
 
@@ -428,26 +455,26 @@ def nbb(**kw):
 # expect: {step: [flag codes]} for the revision the file carries; steps not named have no flags.
 BATCHES = {b["id"]: b for b in [
     # ---- BZC-410 (R-301 esterification, R-302 hydrogenation) ----
-    bzc(id="KB3-BZ-0411", nba_kg=250.4, nba_lot="NBA-2610-017", etoh_lot="ETOH-2611-004",
+    bzc(id="KB3-BZ-0411", version=2, nba_kg=250.4, nba_lot="NBA-2610-017", etoh_lot="ETOH-2611-004",
         nahco3_lot="SBC-2610-022", etoh2_lot="ETOH-2611-004", etoh_rec_lot="ETOH-R-2611-021",
         s1_start="2026-11-22 06:50", s2_start="2026-11-23 07:20", expect={}),
-    bzc(id="KB3-BZ-0412", nba_kg=240.2, nba_lot="NBA-2610-017", etoh_lot="ETOH-2611-004", nahco3_kg=None,
+    bzc(id="KB3-BZ-0412", version=2, nba_kg=240.2, nba_lot="NBA-2610-017", etoh_lot="ETOH-2611-004", nahco3_kg=None,
         nahco3_lb=44.0, nahco3_lot="SBC-US-50LB-0913", etoh2_lot="ETOH-R-2611-021", etoh_rec_lot="ETOH-R-2611-022",
         s1_yield=93.1, s2_yield=93.6, h2_eq=3.15,
         s1_start="2026-11-23 06:40", s2_start="2026-11-24 07:10", expect={}),
-    bzc(id="KB3-BZ-0413", nba_kg=255.0, nba_lot="NBA-2610-017", etoh_lot="ETOH-R-2611-019", etoh_assay=94.2,
+    bzc(id="KB3-BZ-0413", version=2, nba_kg=255.0, nba_lot="NBA-2610-017", etoh_lot="ETOH-R-2611-019", etoh_assay=94.2,
         nahco3_kg=40.0, nahco3_lot="SBC-2610-022", etoh2_lot="ETOH-2611-009", etoh_rec_lot="ETOH-R-2611-023",
         s1_conv=0.835, s1_yield=80.2, s1_ml_loss=1.2, s2_yield=94.8,
         s1_start="2026-11-24 06:45", s2_start="2026-11-25 07:15", expect={"S1": ["yield-low"]}),
-    bzc(id="KB3-BZ-0414", nba_kg=245.1, nba_lot="NBA-2611-002", etoh_lot="ETOH-2611-009",
+    bzc(id="KB3-BZ-0414", version=2, nba_kg=245.1, nba_lot="NBA-2611-002", etoh_lot="ETOH-2611-009",
         nahco3_lot="SBC-2610-022", etoh2_lot="ETOH-R-2611-022", etoh_rec_lot="ETOH-R-2611-024",
         s1_yield=91.8, s2_yield=93.9, h2_eq=3.10, drop_h2_row=True,
         s1_start="2026-11-25 06:40", s2_start="2026-11-26 07:05", expect={"S2": ["reactant-missing"]}),
-    bzc(id="KB3-BZ-0415", nba_kg=260.3, nba_lot="NBA-2611-002", etoh_lot="ETOH-2611-009",
+    bzc(id="KB3-BZ-0415", version=2, nba_kg=260.3, nba_lot="NBA-2611-002", etoh_lot="ETOH-2611-009",
         nahco3_lot="SBC-2611-005", etoh2_lot="ETOH-R-2611-023", etoh_rec_lot="ETOH-R-2611-025",
         s1_yield=92.9, s2_yield=94.6, h2_eq=3.08,
         s1_start="2026-11-26 06:50", s2_start="2026-11-27 07:10", expect={}),
-    bzc(id="KB3-BZ-0416", nba_kg=250.0, nba_lot="NBA-2611-002", etoh_lot="ETOH-2611-009",
+    bzc(id="KB3-BZ-0416", version=2, nba_kg=250.0, nba_lot="NBA-2611-002", etoh_lot="ETOH-2611-009",
         nahco3_lot="SBC-2611-005", etoh2_lot="", etoh_rec_lot="", s1_yield=92.0, s2_missing=True,
         s1_start="2026-11-27 06:45", s2_start="2026-11-28 07:10", expect={"S2": ["step-missing"]}),
 
@@ -495,6 +522,66 @@ BATCHES = {b["id"]: b for b in [
     nbb(id="KB3-NB-0169", bzcl_kg=210.2, start="2026-11-27 17:10", tol_r_lot="TOL-R-2611-022", drum0=90,
         bzcl_lot="BZCL-2611-008", tea_lot="TEA-2611-021", expect={}, yld=93.1),
 ]}
+
+# --------------------------------------------------------------------------------------------------
+# The history: BZC-410 batches before the week (sample-data/history/), one a day in R-301 (S1) and R-302 (S2)
+# --------------------------------------------------------------------------------------------------
+
+HISTORY_V1 = range(364, 384)      # KB3-BZ-0364..0383: S1 2026-10-05..10-24, recipe version 1
+HISTORY_V2 = range(384, 411)      # KB3-BZ-0384..0410: S1 2026-10-26..11-21, recipe version 2
+# 2026-10-25: R-301 maintenance stop (no S1), version 2 takes effect the next day.
+ETHANOL_RUN = range(402, 411)     # nine v2 batches on ethanol lot ETOH-2611-001 (99.5 %): S1 a little lower
+HISTORY_SEED = 4102
+
+
+def history_yields() -> dict[int, tuple[float, float]]:
+    """S1 and S2 yields per history batch: v1 S1 about 90.9 %, v2 about 92.8 % (the run on the wetter ethanol lot
+    about 92.1 %), S2 about 94.1 % in both versions; deterministic scatter (random.Random, fixed seed)."""
+    rng = random.Random(HISTORY_SEED)
+    out = {}
+    for n in list(HISTORY_V1) + list(HISTORY_V2):
+        if n in ETHANOL_RUN:
+            s1 = min(92.10 + rng.gauss(0, 0.12), 92.40)
+        elif n >= 384:
+            s1 = 92.80 + rng.gauss(0, 0.35)
+        else:
+            s1 = 90.90 + rng.gauss(0, 0.45)
+        s2 = 94.10 + rng.gauss(0, 0.35)
+        out[n] = (round(s1, 1), round(s2, 1))
+    return out
+
+
+def history_batches() -> list[dict]:
+    yields = history_yields()
+    batches = []
+    for n in list(HISTORY_V1) + list(HISTORY_V2):
+        bid = f"KB3-BZ-{n:04d}"
+        v2 = n >= 384
+        day = datetime(2026, 10, 5) + timedelta(days=(n - 364) + (1 if v2 else 0))
+        s2_day = day + timedelta(days=1)
+        nba_lot = ["NBA-2609-021", "NBA-2610-004", "NBA-2610-011", "NBA-2610-017"][min((n - 364) // 12, 3)]
+        if n in ETHANOL_RUN:
+            etoh_lot, etoh_assay = "ETOH-2611-001", 99.5
+            run = dict(s1_conv=0.947)
+        else:
+            etoh_lot, etoh_assay = ("ETOH-2610-007" if n < 380 else "ETOH-2610-015"), 99.8
+            run = {}
+        rec_seq = (n - 390) if s2_day.month == 11 else (n - 363)
+        rec_lot = f"ETOH-R-{s2_day:%y%m}-{rec_seq:03d}"
+        prev_rec = batches[-1]["etoh_rec_lot"] if batches else ""
+        s1_yield, s2_yield = yields[n]
+        batches.append(bzc(
+            id=bid, version=2 if v2 else 1, nba_kg=round(238 + (n * 37 % 25), 1), nba_lot=nba_lot,
+            etoh_lot=etoh_lot, etoh_assay=etoh_assay,
+            nahco3_lot="SBC-2609-030" if n < 390 else "SBC-2610-022",
+            etoh2_lot=prev_rec if n % 2 == 0 and prev_rec else "ETOH-2610-015", **run,
+            etoh_rec_lot=rec_lot, s1_yield=s1_yield, s2_yield=s2_yield,
+            s1_start=f"{day:%Y-%m-%d} 06:45", s2_start=f"{s2_day:%Y-%m-%d} 07:10", history=True, expect={}))
+    return batches
+
+
+for _b in history_batches():
+    BATCHES[_b["id"]] = _b
 
 # Variants of a batch as first exported (before a correction).
 VARIANTS = {
@@ -557,6 +644,12 @@ SCHEDULE = [
     ExportFile("2026-11-28 04:25", "KB3-NB-0169", ["KB3-NB-0169"], columns=UPPER_REORDERED),
 ]
 
+# One file per history batch, exported when its S2 record was closed (after the last output row).
+HISTORY_SCHEDULE = [
+    ExportFile(f"{datetime.strptime(b['s2_start'], '%Y-%m-%d %H:%M').date()} 21:30", b["id"], [b["id"]])
+    for b in BATCHES.values() if b.get("history")
+]
+
 # --------------------------------------------------------------------------------------------------
 # Building and writing
 # --------------------------------------------------------------------------------------------------
@@ -613,7 +706,7 @@ def render(f: ExportFile, written: dict) -> bytes:
             if key in r.extra:
                 v = r.extra[key]
             elif key == "recipe_version":
-                v = "1"
+                v = r.version
             else:
                 v = getattr(r, key)
             vals.append(v)
@@ -785,6 +878,111 @@ def build_all() -> dict[str, bytes]:
     return written
 
 
+def build_history() -> dict[str, bytes]:
+    written: dict[str, bytes] = {}
+    for f in HISTORY_SCHEDULE:
+        written[f.name] = render(f, written)
+        last = max(datetime.fromisoformat(r.recorded_at) for r in batch_rows(f.batches[0])[0])
+        assert last < at(f.arrival), f"{f.name}: row recorded at {last.isoformat()} after the file arrived"
+    names = [f.name for f in HISTORY_SCHEDULE]
+    assert names == sorted(names) and len(set(names)) == len(names)
+    assert max(names) < min(f.name for f in SCHEDULE), "the history comes before the week"
+    return written
+
+
+def step_series(keys) -> list[dict]:
+    """Per BZC-410 batch (current revision) in production order (production day, last output, batch id): version,
+    day and the S1/S2 yields the reconciliation computes from the rows as written."""
+    points = []
+    for key in keys:
+        rows, _, _ = batch_rows(key)
+        bid = key if isinstance(key, str) else key[0]
+        b = BATCHES[bid]
+        if b["recipe"] != "BZC-410":
+            continue
+        outs = [datetime.fromisoformat(r.recorded_at) for r in rows if r.entry in ("product", "waste", "recovered", "sample")]
+        p = {"batch": bid, "version": b["version"], "day": production_day(rows), "last": max(outs)}
+        for st in recipe_steps("BZC-410", b["version"]):
+            r = reconcile_step(st, [x for x in rows if x.step == st.code])
+            p[st.code] = r.get("yield_pct")
+            p[st.code + "_flags"] = [c for c, _ in r.get("flags", [])]
+        points.append(p)
+    return sorted(points, key=lambda p: (p["day"], p["last"], p["batch"]))
+
+
+def imr(values: list[float], baseline: int = 20) -> dict:
+    """I-MR limits from the first `baseline` values (d2 = 1.128 for n = 2, NIST/SEMATECH e-Handbook 6.3.2) and
+    the runs of 9 or more on one side of the centre line (Nelson rule 2)."""
+    base = values[:baseline]
+    centre = sum(base) / len(base)
+    mrbar = sum(abs(a - b) for a, b in zip(base[1:], base)) / (len(base) - 1)
+    sigma = mrbar / 1.128
+    runs, start = [], 0
+    side = lambda v: (v > centre) - (v < centre)
+    for i in range(1, len(values) + 1):
+        if i == len(values) or side(values[i]) != side(values[start]) or side(values[i]) == 0:
+            if i - start >= 9 and side(values[start]) != 0:
+                runs.append((start, i - 1, "above" if side(values[start]) > 0 else "below"))
+            start = i
+    beyond = [i for i, v in enumerate(values) if abs(v - centre) > 3 * sigma]
+    return {"centre": centre, "sigma": sigma, "ucl": centre + 3 * sigma, "lcl": centre - 3 * sigma, "runs": runs, "beyond": beyond}
+
+
+def welch(a: list[float], b: list[float]) -> dict:
+    ma, mb = sum(a) / len(a), sum(b) / len(b)
+    va = sum((x - ma) ** 2 for x in a) / (len(a) - 1)
+    vb = sum((x - mb) ** 2 for x in b) / (len(b) - 1)
+    se = math.sqrt(va / len(a) + vb / len(b))
+    df = (va / len(a) + vb / len(b)) ** 2 / ((va / len(a)) ** 2 / (len(a) - 1) + (vb / len(b)) ** 2 / (len(b) - 1))
+    return {"na": len(a), "nb": len(b), "ma": ma, "mb": mb, "sa": math.sqrt(va), "sb": math.sqrt(vb),
+            "diff": mb - ma, "t": (mb - ma) / se, "df": df}
+
+
+def history_report() -> tuple[list[str], list[str]]:
+    """README lines for the history and what a trend and a comparison of BZC-410 should show; console lines."""
+    hist = step_series([f.batches[0] for f in HISTORY_SCHEDULE])
+    week = step_series([k for f in SCHEDULE if not f.malformed and not f.duplicate_of for k in f.batches])
+    problems = [f"{p['batch']} {c}: {p[c + '_flags']}" for p in hist for c in ("S1", "S2") if p[c + "_flags"]]
+    assert not problems, "history batches must be clean: " + "; ".join(problems)
+    allp = hist + week
+    lines = [f"| batch | version | production day | S1 yield % | S2 yield % |", "|---|---|---|---|---|"]
+    for p in hist:
+        lines.append(f"| {p['batch']} | v{p['version']} | {p['day']} | {p['S1']:.1f} | {p['S2']:.1f} |")
+    lines.append("")
+    v1 = [p for p in allp if p["version"] == 1]
+    v2 = [p for p in allp if p["version"] == 2]
+    lines.append(f"{len(hist)} history batches: {sum(1 for p in hist if p['version'] == 1)} of version 1 "
+                 f"(production days {v1[0]['day']} to {v1[-1]['day']}), {sum(1 for p in hist if p['version'] == 2)} of version 2 "
+                 f"({hist[-1]['day'] if False else [p for p in hist if p['version'] == 2][0]['day']} to {hist[-1]['day']}); "
+                 f"none raises a flag. With the week, version 2 has {len(v2)} batches ({len([p for p in v2 if p['S2'] is not None])} with an S2 yield).")
+    lines.append("")
+    v2s1 = [p["S1"] for p in v2 if p["S1"] is not None]
+    c = imr(v2s1)
+    names = [p["batch"] for p in v2 if p["S1"] is not None]
+    lines.append(f"- **Trend of S1, version 2** (baseline the first 20 batches): centre {c['centre']:.2f} %, sigma "
+                 f"{c['sigma']:.3f} (moving range / 1.128), limits {c['lcl']:.2f} to {c['ucl']:.2f} %.")
+    for a, b, side in c["runs"]:
+        lines.append(f"  Run of {b - a + 1} batches {side} the centre line, {names[a]} to {names[b]} (Nelson rule 2 "
+                     f"from the 9th), every one inside the master-record limits 85-96 % (no flag).")
+        assert all(85 <= v2s1[i] <= 96 for i in range(a, b + 1))
+    assert [(names[a], side) for a, b, side in c["runs"]] == [("KB3-BZ-0402", "below")], c["runs"]
+    for i in c["beyond"]:
+        lines.append(f"  Beyond the 3-sigma limits (rule 1): {names[i]} at {v2s1[i]:.1f} %.")
+    allS1 = [p["S1"] for p in allp if p["S1"] is not None]
+    ca = imr(allS1)
+    names_a = [p["batch"] for p in allp if p["S1"] is not None]
+    lines.append(f"- **Trend of S1, both versions** (baseline the first 20 batches, all version 1): centre {ca['centre']:.2f} %, "
+                 f"limits {ca['lcl']:.2f} to {ca['ucl']:.2f} %; the change to version 2 shows as "
+                 + ", ".join(f"{b - a + 1} in a row {side} ({names_a[a]} to {names_a[b]})" for a, b, side in ca["runs"]) + ".")
+    for code in ("S1", "S2"):
+        w = welch([p[code] for p in v1 if p[code] is not None], [p[code] for p in v2 if p[code] is not None])
+        lines.append(f"- **Compare {code}, v1 against v2**: v1 n = {w['na']}, mean {w['ma']:.2f} % (s {w['sa']:.2f}); "
+                     f"v2 n = {w['nb']}, mean {w['mb']:.2f} % (s {w['sb']:.2f}); difference {w['diff']:+.2f} points, "
+                     f"Welch t = {w['t']:.2f} on {w['df']:.1f} degrees of freedom.")
+    out = [f"history: {len(hist)} batches, {len(v1)} v1, {len(v2)} v2 (incl. the week)"] + lines
+    return lines, out
+
+
 def fmt_flags(flags) -> str:
     return ", ".join(f"{c} ({d})" for c, d in flags) if flags else "no flags"
 
@@ -823,7 +1021,7 @@ def report(written: dict[str, bytes]) -> tuple[str, list[str]]:
             day = production_day(rows)
             cells = []
             got_all = {}
-            for st in RECIPES[b["recipe"]]:
+            for st in recipe_steps(b["recipe"], b.get("version", 1)):
                 r = reconcile_step(st, [x for x in rows if x.step == st.code])
                 got = [c for c, _ in r["flags"]]
                 got_all[st.code] = got
@@ -874,28 +1072,36 @@ def report(written: dict[str, bytes]) -> tuple[str, list[str]]:
     return "\n".join(out), table, problems
 
 
+def replace_block(readme: str, start: str, end: str, block: str) -> str:
+    return readme[:readme.index(start)] + block + readme[readme.index(end) + len(end):] if start in readme else readme
+
+
 def main(argv: list[str]) -> int:
     check = "--check" in argv
     written = build_all()
+    history = build_history()
     text, table, problems = report(written)
     print(text)
+    hist_lines, hist_out = history_report()
+    print("\n".join(hist_out))
     start, end = "<!-- expected:begin (generated by tools/generate.py) -->", "<!-- expected:end -->"
     block = "\n".join([start, "", "| file (arrival order) | batch, revision, production day | expected result |",
                        "|---|---|---|", *table, "", end])
     readme = open(README, encoding="utf-8").read() if os.path.exists(README) else ""
-    if start in readme:
-        new_readme = readme[:readme.index(start)] + block + readme[readme.index(end) + len(end):]
-    else:
-        new_readme = readme
+    new_readme = replace_block(readme, start, end, block)
+    hstart, hend = "<!-- history:begin (generated by tools/generate.py) -->", "<!-- history:end -->"
+    new_readme = replace_block(new_readme, hstart, hend, "\n".join([hstart, "", *hist_lines, "", hend]))
     differ = []
-    existing = sorted(os.listdir(INBOX)) if os.path.isdir(INBOX) else []
-    for name in existing:
-        if name not in written:
-            differ.append(f"stray file {name}")
-    for name, data in written.items():
-        path = os.path.join(INBOX, name)
-        if not os.path.exists(path) or open(path, "rb").read() != data:
-            differ.append(name)
+    folders = [(INBOX, written), (HISTORY, history)]
+    for folder, files in folders:
+        existing = sorted(os.listdir(folder)) if os.path.isdir(folder) else []
+        for name in existing:
+            if name not in files:
+                differ.append(f"stray file {name}")
+        for name, data in files.items():
+            path = os.path.join(folder, name)
+            if not os.path.exists(path) or open(path, "rb").read() != data:
+                differ.append(name)
     if new_readme != readme:
         differ.append("README.md table")
     if check:
@@ -903,13 +1109,14 @@ def main(argv: list[str]) -> int:
             print("differs:", d)
         print("check:", "OK, committed files are what the script writes" if not differ else "DIFFERENCES")
         return 1 if differ or problems else 0
-    os.makedirs(INBOX, exist_ok=True)
-    for name in existing:
-        if name not in written:
-            os.remove(os.path.join(INBOX, name))
-    for name, data in written.items():
-        with open(os.path.join(INBOX, name), "wb") as fh:
-            fh.write(data)
+    for folder, files in folders:
+        os.makedirs(folder, exist_ok=True)
+        for name in sorted(os.listdir(folder)):
+            if name not in files:
+                os.remove(os.path.join(folder, name))
+        for name, data in files.items():
+            with open(os.path.join(folder, name), "wb") as fh:
+                fh.write(data)
     if new_readme != readme:
         with open(README, "w", encoding="utf-8", newline="\n") as fh:
             fh.write(new_readme)

@@ -241,6 +241,7 @@ public sealed partial class BatchStore
                 .Set("$expanded", step.Limits.ExpandedUncertaintyKg)
                 .Set("$ranges", step.Limits.EquivalentsRanges is { } ranges ? StoreJson.EquivalentsRanges(ranges) : null)
                 .Set("$inWasteMax", step.Limits.ProductInWasteMaxPct)
+                .Set("$solventIn", step.SolventInKg).Set("$waterIn", step.WaterInKg)
                 .Execute();
         }
 

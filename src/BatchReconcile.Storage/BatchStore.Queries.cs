@@ -420,7 +420,9 @@ public sealed partial class BatchStore
                 r.NullableDouble(o + 30),
                 r.NullableDouble(o + 31),
                 StoreJson.ParseEquivalentsRanges(r.NullableString(o + 32)),
-                r.NullableDouble(o + 33)));
+                r.NullableDouble(o + 33)),
+            SolventInKg: r.NullableDouble(o + 34),
+            WaterInKg: r.NullableDouble(o + 35));
         return new StoredStep(outcome, stepFlags);
     }
 

@@ -92,6 +92,36 @@ public class HydrogenationFiguresTests
     }
 
     [Fact]
+    public void Solvent_water_and_the_per_material_parts_of_the_ladder()
+    {
+        var o = Hydrogenation.Reconcile(Hydrogenation.Rows());
+
+        // Solvent: the ethanol, 1.000 t = 1000.0 kg (role solvent, not in the equation); no water is charged.
+        Close.Equal(1000.0, o.SolventInKg, "solvent in");
+        Close.Equal(0.0, o.WaterInKg, "water in");
+
+        // Auxiliaries not recovered, by material in charge order: ENB 200.0 − 197.0 = 3.0 (non-assay part of a reactant
+        // row); ETOH 1000.0 − 940.0 recovered = 60.0; PDC 4000 g = 4.0. H2 at 100 % puts nothing in. 3.0 + 60.0 + 4.0 = 67.0.
+        var aux = o.Ladder.Single(r => r.Key == LadderRungKeys.AuxiliariesNotRecovered);
+        Assert.Equal(["ENB", "ETOH", "PDC"], aux.Parts.Select(p => p.Material));
+        Close.Equal(3.0, aux.Parts[0].Kg, "ENB");
+        Close.Equal(60.0, aux.Parts[1].Kg, "ETOH");
+        Close.Equal(4.0, aux.Parts[2].Kg, "PDC");
+
+        // Excess reactants per reactant: ENB 197.0 − ξ_max·195.174 = 0 (limiting); H2 6.5 − 1.009356 × 3 × 2.016 =
+        // 6.5 − 6.10458 = 0.39542 kg, the rung's 0.395 kg.
+        var excess = o.Ladder.Single(r => r.Key == LadderRungKeys.ExcessReactants);
+        Assert.Equal(["ENB", "H2"], excess.Parts.Select(p => p.Material));
+        Assert.True(Math.Abs(excess.Parts[0].Kg) <= 1e-9 * o.MassInKg);
+        Close.Equal(6.5 - (XiMax * 3 * Mw.H2), excess.Parts[1].Kg, "H2");
+
+        // Parts add up to their rung within 1e-9 of m_in (rounding only); every other rung has none.
+        Assert.True(Math.Abs(aux.Parts.Sum(p => p.Kg) - aux.Kg) <= 1e-9 * o.MassInKg);
+        Assert.True(Math.Abs(excess.Parts.Sum(p => p.Kg) - excess.Kg) <= 1e-9 * o.MassInKg);
+        Assert.All(o.Ladder.Where(r => r != aux && r != excess), r => Assert.Empty(r.Parts));
+    }
+
+    [Fact]
     public void Combined_uncertainty_adds_every_weighing_in_quadrature()
     {
         // Site defaults: u = sqrt((0.001·m)² + (0.05 kg)²) per weighed row; no vented gas, so every sensitivity is 1

@@ -27,6 +27,17 @@ public sealed record LossLadder
 
     public LossRung this[LossRungKind kind] => Rungs.Single(r => r.Kind == kind);
 
+    /// <summary>The same ladder with the per-material parts of the two rungs tied to materials.</summary>
+    internal LossLadder WithParts(IReadOnlyList<LadderPart> auxiliariesNotRecovered, IReadOnlyList<LadderPart> excessReactants) =>
+        new(InputKg, ActualProductKg, Rungs
+            .Select(r => r.Kind switch
+            {
+                LossRungKind.AuxiliariesNotRecovered => r with { Parts = auxiliariesNotRecovered },
+                LossRungKind.ExcessReactants => r with { Parts = excessReactants },
+                _ => r,
+            })
+            .ToArray());
+
     internal static LossLadder Build(
         double inputKg,
         double auxiliaryKg,

@@ -8,8 +8,9 @@ namespace BatchReconcile.Chemistry.Metrics;
 /// </remarks>
 public sealed record OutputRow
 {
-    private OutputRow(OutputKind kind, double grossKg, double productKg, double productFraction, AuxiliaryRole role)
+    private OutputRow(OutputKind kind, double grossKg, double productKg, double productFraction, AuxiliaryRole role, string? material = null)
     {
+        Material = material;
         Kind = kind;
         GrossKg = grossKg;
         ProductKg = productKg;
@@ -18,6 +19,9 @@ public sealed record OutputRow
     }
 
     public OutputKind Kind { get; }
+
+    /// <summary>The material a recovered row names (catalog spelling), for the per-material parts of the loss ladder; null when not given.</summary>
+    public string? Material { get; }
 
     /// <summary>Gross (as weighed) mass in kg.</summary>
     public double GrossKg { get; }
@@ -46,10 +50,16 @@ public sealed record OutputRow
     public static OutputRow Sample(double grossKg, double productKg = 0) => WithContent(OutputKind.Sample, grossKg, productKg);
 
     /// <summary>A recovered stream; the role tells the simple E-factor whether it is solvent or water.</summary>
-    public static OutputRow Recovered(double grossKg, AuxiliaryRole role = AuxiliaryRole.Other)
+    /// <param name="material">The material the row names; without it the auxiliaries rung has no per-material parts.</param>
+    public static OutputRow Recovered(double grossKg, AuxiliaryRole role = AuxiliaryRole.Other, string? material = null)
     {
         Guard.FiniteNonNegative(grossKg, nameof(grossKg), "recovered row");
-        return new OutputRow(OutputKind.Recovered, grossKg, 0, 0, role);
+        if (material is not null)
+        {
+            ArgumentException.ThrowIfNullOrWhiteSpace(material);
+        }
+
+        return new OutputRow(OutputKind.Recovered, grossKg, 0, 0, role, material);
     }
 
     private static OutputRow WithContent(OutputKind kind, double grossKg, double productKg)

@@ -15,6 +15,12 @@ namespace BatchReconcile.Chemistry.Metrics;
 /// every figure that sets the product against the charged mass (SF, RME, RME_g, PMI, cEF, sEF) is null.</para>
 /// <para>Complete E-factor. Roschangar et al. describe cEF as assuming no recycling; the project spec subtracts
 /// m_rec, and the spec is followed here. PMI − 1 gives the no-recycling figure.</para>
+/// <para>Per-material parts of the ladder (<see cref="LossRung.Parts"/>): the auxiliaries rung is split by material,
+/// each the mass charged under that material outside the equation less what was recovered of it; the excess-reactants
+/// rung by reactant, m_r − ξ_max·ν_r·M_r (the limiting reactant's part is 0 up to rounding). Each set adds up to its
+/// rung up to floating-point rounding (a solution's rest below 10⁻⁹ of its mass is not a part).</para>
+/// <para>Solvent and water charged (<see cref="StepResult.SolventChargedKg"/>, <see cref="StepResult.WaterChargedKg"/>)
+/// are the two halves of the m_sw,in above, counted the same way.</para>
 /// </remarks>
 public static class StepMetrics
 {
@@ -56,6 +62,8 @@ public static class StepMetrics
         double solventWaterInKg = input.Charges.Sum(c => c.IsSolution
             ? c.Contents.Where(k => !reactantCodes.Contains(k.Material) && k.Role is AuxiliaryRole.Solvent or AuxiliaryRole.Water).Sum(k => k.Kg)
             : !reactantCodes.Contains(c.Material) && c.Role is AuxiliaryRole.Solvent or AuxiliaryRole.Water ? c.GrossKg : 0);
+        double solventInKg = input.Charges.Sum(c => ChargedWithRole(c, AuxiliaryRole.Solvent, reactantCodes));
+        double waterInKg = input.Charges.Sum(c => ChargedWithRole(c, AuxiliaryRole.Water, reactantCodes));
         double solventWaterRecoveredKg = input.Outputs
             .Where(o => o.Kind == OutputKind.Recovered && o.Role is AuxiliaryRole.Solvent or AuxiliaryRole.Water)
             .Sum(o => o.GrossKg);
@@ -104,13 +112,85 @@ public static class StepMetrics
                 inputKg - solventWaterInKg - (recoveredKg - solventWaterRecoveredKg) - actualKg, actualKg)),
             SolventAndWaterChargedKg = solventWaterInKg,
             SolventAndWaterRecoveredKg = solventWaterRecoveredKg,
+            SolventChargedKg = solventInKg,
+            WaterChargedKg = waterInKg,
             ProductInWasteKg = productInWasteKg,
             ProductInSamplesKg = productInSamplesKg,
             Ladder = theoreticalKg is { } t && stoichiometricKg is { } s
                 ? LossLadder.Build(inputKg, auxiliaryKg, recoveredKg, reactantKg, s, t, actualKg, productInWasteKg, productInSamplesKg)
+                    .WithParts(
+                        AuxiliaryParts(input, reactantCodes),
+                        reaction.Reactants.Select(r => new LadderPart(r.Code, chargedByMaterial[r.Code] - (maxExtent!.Value * r.MassPerExtent))).ToArray())
                 : null,
             Balance = MassBalanceCalculator.Compute(input, inputKg, actualExtent, maxExtent),
         };
+    }
+
+    /// <summary>What one charge row puts in with <paramref name="role"/>: a plain row whole (gross), a solution its
+    /// components with that role; nothing of a reactant of the equation.</summary>
+    private static double ChargedWithRole(ChargeRow c, AuxiliaryRole role, HashSet<string> reactantCodes) => c.IsSolution
+        ? c.Contents.Where(k => k.Role == role && !reactantCodes.Contains(k.Material)).Sum(k => k.Kg)
+        : c.Role == role && !reactantCodes.Contains(c.Material) ? c.GrossKg : 0;
+
+    /// <summary>
+    /// m_aux − m_rec material by material, in order of first appearance: each charge row's mass that is not reactant
+    /// (a plain auxiliary row whole, the non-assay part of a reactant row, a solution's non-reactant components and
+    /// the part of its weighed mass no component accounts for, under the solution's code), less the recovered rows of
+    /// that material. Empty when a recovered row does not name its material (the parts could not add up).
+    /// </summary>
+    private static IReadOnlyList<LadderPart> AuxiliaryParts(StepInput input, HashSet<string> reactantCodes)
+    {
+        var recovered = input.Outputs.Where(o => o.Kind == OutputKind.Recovered).ToArray();
+        if (recovered.Any(o => o.Material is null))
+        {
+            return [];
+        }
+
+        var order = new List<string>();
+        var kg = new Dictionary<string, double>(StringComparer.Ordinal);
+        void Add(string material, double value)
+        {
+            if (!kg.ContainsKey(material))
+            {
+                order.Add(material);
+                kg[material] = 0;
+            }
+
+            kg[material] += value;
+        }
+
+        foreach (var charge in input.Charges)
+        {
+            if (charge.IsSolution)
+            {
+                foreach (var content in charge.Contents.Where(k => !reactantCodes.Contains(k.Material)))
+                {
+                    Add(content.Material, content.Kg);
+                }
+
+                // Why the window: nominal shares summing to 100 % leave a rest of rounding noise, not a material.
+                double rest = charge.GrossKg - charge.Contents.Sum(k => k.Kg);
+                if (Math.Abs(rest) > charge.GrossKg * 1e-9)
+                {
+                    Add(charge.Material, rest);
+                }
+            }
+            else
+            {
+                double auxiliary = reactantCodes.Contains(charge.Material) ? charge.GrossKg - charge.Contents[0].Kg : charge.GrossKg;
+                if (auxiliary != 0)
+                {
+                    Add(charge.Material, auxiliary);
+                }
+            }
+        }
+
+        foreach (var row in recovered)
+        {
+            Add(row.Material!, -row.GrossKg);
+        }
+
+        return order.Select(m => new LadderPart(m, kg[m])).ToArray();
     }
 
     private static Dictionary<string, double> SumAssayKgByMaterial(IEnumerable<ChargeRow> charges)

@@ -78,6 +78,14 @@ public sealed record StepResult
     /// <summary>Gross solvent and water charged outside the equation, kg.</summary>
     public required double SolventAndWaterChargedKg { get; init; }
 
+    /// <summary>Solvent charged outside the equation, kg: plain rows whose role is solvent (gross) and the solvent
+    /// components of solutions; never a reactant. Part of <see cref="SolventAndWaterChargedKg"/>.</summary>
+    public required double SolventChargedKg { get; init; }
+
+    /// <summary>Water charged outside the equation, kg: plain rows whose role is water (gross) and the water of
+    /// solutions; never a reactant. Part of <see cref="SolventAndWaterChargedKg"/>.</summary>
+    public required double WaterChargedKg { get; init; }
+
     /// <summary>Recovered rows marked solvent or water, kg.</summary>
     public required double SolventAndWaterRecoveredKg { get; init; }
 

@@ -8,6 +8,9 @@ namespace BatchReconcile.Reconciliation.Outcomes;
 /// no product so no PMI) are null, never NaN or infinity.
 /// </remarks>
 /// <param name="Limits">Every limit and setting that decided the step's flags, as they were when it was reconciled.</param>
+/// <param name="SolventInKg">Solvent charged, kg: rows whose role is solvent plus the solvent components of solutions,
+/// never a reactant of the equation (docs/computation.md). Null when not known (stored before schema version 9).</param>
+/// <param name="WaterInKg">Water charged, kg, counted the same way; null when not known (stored before schema version 9).</param>
 public sealed record StepOutcome(
     string Step,
     bool HasRows,
@@ -37,4 +40,6 @@ public sealed record StepOutcome(
     IReadOnlyDictionary<string, double> Equivalents,
     IReadOnlyList<LadderRung> Ladder,
     IReadOnlyList<Flag> Flags,
-    StepLimits Limits);
+    StepLimits Limits,
+    double? SolventInKg = null,
+    double? WaterInKg = null);

@@ -79,7 +79,7 @@ internal static class StepInputBuilder
                     break;
                 case EntryKind.Recovered:
                     var recovered = materials.Get(row.Material ?? throw Bug(step, row, "a recovered row without a material"));
-                    outputs.Add(OutputRow.Recovered(kg, RoleOf(recovered)));
+                    outputs.Add(OutputRow.Recovered(kg, RoleOf(recovered), recovered.Code));
                     break;
                 default:
                     throw Bug(step, row, $"an entry kind the engine does not know ({row.Entry})");

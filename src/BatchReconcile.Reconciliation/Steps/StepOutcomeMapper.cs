@@ -32,7 +32,7 @@ internal static class StepOutcomeMapper
 
                 // A ladder exists only when a reactant was charged, so m_in > 0 and the percentage is defined.
                 double pct = rung.PercentOfInput ?? throw new InvalidOperationException($"Step {step.Code}: ladder without charged mass.");
-                return new LadderRung(key, label, rung.Kg, pct);
+                return new LadderRung(key, label, rung.Kg, pct) { Parts = rung.Parts };
             })
             .ToArray() ?? [];
 
@@ -74,6 +74,8 @@ internal static class StepOutcomeMapper
                 balance.CoverageFactor,
                 balance.ExpandedUncertaintyKg,
                 step.Equivalents,
-                productInWasteMaxPct));
+                productInWasteMaxPct),
+            SolventInKg: r.SolventChargedKg,
+            WaterInKg: r.WaterChargedKg);
     }
 }

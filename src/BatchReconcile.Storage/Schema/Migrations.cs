@@ -17,6 +17,7 @@ public static class Migrations
         new(6, "recipe version source per batch revision; the limits and settings that decided each step's flags, per step result", V6DecidingLimits, RecipeVersionSourceBackfill.Run),
         new(7, "route yield and intermediate links per batch revision", V7RouteYield),
         new(8, "digest freshness: a change count per production day kept by triggers, and what each digest write covered", V8DigestFreshness),
+        new(9, "solvent and water charged per step result", V9SolventAndWater),
     ];
 
     public static int Latest => All[^1].Version;
@@ -357,6 +358,14 @@ public static class Migrations
                               WHERE f.production_day = digest.day AND f.is_current = 1 AND f.reviewed_at <= digest.written_at);
         UPDATE day_change SET digested =
             (SELECT d.seen_batches + d.seen_revisions + d.seen_withdrawn + d.seen_reviews FROM digest d WHERE d.day = day_change.day ORDER BY d.id DESC LIMIT 1);
+        """;
+
+    // Solvent and water charged per step (docs/computation.md). Rows stored before stay NULL (unknown): the rows are
+    // kept, but the roles they were judged by come from the definitions of the time, which were not recorded. The
+    // per-material parts of the ladder live in the ladder JSON; rungs stored before have none.
+    private const string V9SolventAndWater = """
+        ALTER TABLE step_result ADD COLUMN solvent_in_kg REAL;
+        ALTER TABLE step_result ADD COLUMN water_in_kg REAL;
         """;
 
     private const string GenesisHash = "0000000000000000000000000000000000000000000000000000000000000000";

@@ -22,7 +22,7 @@ internal static class StoreQueries
         s.mass_in_kg, s.reactant_mass_kg, s.stoichiometric_mass_kg, s.recovered_kg, s.mass_out_kg, s.vented_kg,
         s.vented_max_kg, s.gap_kg, s.closure_pct, s.combined_uncertainty_kg, s.equivalents, s.ladder,
         s.yield_min_pct, s.yield_max_pct, s.balance_tolerance_pct, s.coverage_factor, s.expanded_uncertainty_kg,
-        s.equivalents_ranges, s.product_in_waste_max_pct
+        s.equivalents_ranges, s.product_in_waste_max_pct, s.solvent_in_kg, s.water_in_kg
         """;
 
     /// <summary>The columns of a flag, in the order <c>BatchStore.ReadFlag</c> reads them (prefix <c>f.</c>).</summary>

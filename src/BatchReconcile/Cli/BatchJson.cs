@@ -1,3 +1,4 @@
+using BatchReconcile.Chemistry.Metrics;
 using BatchReconcile.Reconciliation.Flags;
 using BatchReconcile.Reconciliation.Outcomes;
 using BatchReconcile.Records.Definitions;
@@ -32,7 +33,9 @@ public static class BatchJson
         IReadOnlyDictionary<string, double> Equivalents,
         IReadOnlyList<LadderJson> Ladder,
         IReadOnlyList<FlagJson> Flags,
-        LimitsJson Limits);
+        LimitsJson Limits,
+        double? SolventInKg,
+        double? WaterInKg);
 
     /// <summary>The limits and settings that decided the step's flags, as stored with it; null is unknown (never 0).</summary>
     public sealed record LimitsJson(
@@ -52,7 +55,8 @@ public static class BatchJson
         public static ErrorJson From(ExportError e) => new(e.Line, e.Column, e.Value, e.Reason);
     }
 
-    public sealed record LadderJson(string Rung, string Label, double Kg, double PctOfCharged);
+    /// <param name="Parts">Per material where the rung is tied to materials; empty otherwise and for rungs stored before parts were kept.</param>
+    public sealed record LadderJson(string Rung, string Label, double Kg, double PctOfCharged, IReadOnlyList<LadderPart> Parts);
 
     public sealed record BatchShowJson(
         string Batch,
@@ -122,7 +126,7 @@ public static class BatchJson
         Round(s.ClosurePct),
         Round(s.CombinedUncertaintyKg, 4),
         s.Equivalents.ToDictionary(e => e.Key, e => Round(e.Value, 4)),
-        s.Ladder.Select(r => new LadderJson(r.Key, r.Label, Round(r.Kg), Round(r.PctOfCharged))).ToList(),
+        s.Ladder.Select(r => new LadderJson(r.Key, r.Label, Round(r.Kg), Round(r.PctOfCharged), r.Parts.Select(p => p with { Kg = Round(p.Kg) }).ToList())).ToList(),
         flags,
         new LimitsJson(
             s.Limits.YieldMinPct,
@@ -131,7 +135,9 @@ public static class BatchJson
             s.Limits.CoverageFactor,
             Round(s.Limits.ExpandedUncertaintyKg, 4),
             s.Limits.EquivalentsRanges?.OrderBy(e => e.Key, StringComparer.Ordinal).ToDictionary(e => e.Key, e => new RangeJson(e.Value.Min, e.Value.Max)),
-            s.Limits.ProductInWasteMaxPct));
+            s.Limits.ProductInWasteMaxPct),
+        Round(s.SolventInKg),
+        Round(s.WaterInKg));
 
     /// <summary>Masses to 0.001 kg and percentages to 0.001 %: enough for a balance read to 1 g, without binary noise.</summary>
     private static double Round(double value, int digits = 3) => Rounding.To(value, digits);

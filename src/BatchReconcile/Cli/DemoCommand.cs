@@ -18,6 +18,11 @@ namespace BatchReconcile.Cli;
 /// batches, yields and flags and where every file went.
 /// </summary>
 /// <remarks>
+/// The scenario's history (sample-data/history: earlier batches of one recipe over two versions, for trends and
+/// comparisons) is ingested first, then the week's exports; the batch table lists the week's batches and one line
+/// sums up the history.
+/// </remarks>
+/// <remarks>
 /// Exits 0 when the scenario ran: its malformed files are meant to be quarantined, and the summary says so.
 /// </remarks>
 public static class DemoCommand
@@ -31,13 +36,23 @@ public static class DemoCommand
             Description = "Folder of sample exports (default: sample-data/inbox)",
             DefaultValueFactory = _ => new DirectoryInfo(Path.Combine("sample-data", "inbox")),
         };
-        var command = new Command("demo", "Run the whole job once over the sample scenario into a fresh data folder and summarise it") { samples };
+        var history = new Option<DirectoryInfo?>("--history")
+        {
+            Description = "Folder of earlier exports ingested before the samples (default: the 'history' folder beside --samples, when there is one)",
+        };
+        var command = new Command("demo", "Run the whole job once over the sample scenario into a fresh data folder and summarise it") { samples, history };
         command.SetAction(parse =>
         {
             var source = parse.GetRequiredValue(samples);
             if (!source.Exists)
             {
                 throw new UsageException($"{source.FullName}: no such folder (run from the repository root, or give --samples)");
+            }
+
+            var earlier = parse.GetValue(history) ?? new DirectoryInfo(Path.Combine(source.Parent?.FullName ?? ".", "history"));
+            if (parse.GetValue(history) is { Exists: false } missing)
+            {
+                throw new UsageException($"{missing.FullName}: no such folder (--history)");
             }
 
             var data = parse.GetValue(globals.Data)?.FullName
@@ -51,9 +66,12 @@ public static class DemoCommand
             using var host = HostedCommand.Start(context, service: false, quietConsole: true);
             var services = host.Services;
             var folders = services.GetRequiredService<DataFolders>();
-            var files = CopyIntoInbox(source, folders.Inbox, services.GetRequiredService<TimeProvider>());
             var groupSize = services.GetRequiredService<IOptions<IntakeOptions>>().Value.GroupCommitMaxFiles;
-            var outcomes = IngestCommand.Run(services.GetRequiredService<IngestPipeline>(), files, groupSize, TextWriter.Null, showProgress: false);
+            var pipeline = services.GetRequiredService<IngestPipeline>();
+            var historyFiles = earlier.Exists ? CopyIntoInbox(earlier, folders.Inbox, services.GetRequiredService<TimeProvider>()) : [];
+            var historyOutcomes = IngestCommand.Run(pipeline, historyFiles, groupSize, TextWriter.Null, showProgress: false);
+            var files = CopyIntoInbox(source, folders.Inbox, services.GetRequiredService<TimeProvider>());
+            var outcomes = IngestCommand.Run(pipeline, files, groupSize, TextWriter.Null, showProgress: false);
 
             var console = AnsiConsole.Create(new AnsiConsoleSettings { Out = new AnsiConsoleOutput(stdout) });
             if (Console.IsOutputRedirected || console.Profile.Width < 160)
@@ -64,13 +82,20 @@ public static class DemoCommand
 
             var site = services.GetRequiredService<IOptions<SiteOptions>>().Value;
             console.WriteLine($"BatchReconcile demo: {site.Name} ({site.TimeZone}, production day from {site.ProductionDayStart})");
+            var store = services.GetRequiredService<BatchStore>();
+            if (historyFiles.Count > 0)
+            {
+                WriteHistory(console, earlier, historyOutcomes, store);
+            }
+
             console.WriteLine($"{files.Count} export files from {source.FullName}");
             console.WriteLine();
             WriteFiles(console, outcomes);
-            WriteBatches(console, services.GetRequiredService<BatchStore>());
-            WriteFlags(console, services.GetRequiredService<BatchStore>());
+            var earlierBatches = historyOutcomes.SelectMany(o => o.Batches).Select(b => b.BatchId).ToHashSet(StringComparer.Ordinal);
+            WriteBatches(console, store, earlierBatches);
+            WriteFlags(console, store);
             var digest = WriteLastDayDigest(services);
-            WhereEverythingWent(console, folders, outcomes);
+            WhereEverythingWent(console, folders, [.. historyOutcomes, .. outcomes]);
             if (digest is not null)
             {
                 console.WriteLine(string.Create(Inv, $"Digest of the last production day, {digest.Day:yyyy-MM-dd} ({digest.Flags} flags):"));
@@ -117,10 +142,32 @@ public static class DemoCommand
         console.WriteLine();
     }
 
-    private static void WriteBatches(IAnsiConsole console, BatchStore store)
+    /// <summary>One paragraph for the history: how many files and batches, of which recipes and versions, over which days.</summary>
+    private static void WriteHistory(IAnsiConsole console, DirectoryInfo folder, IReadOnlyList<FileOutcome> outcomes, BatchStore store)
+    {
+        var ids = outcomes.SelectMany(o => o.Batches).Select(b => b.BatchId).ToHashSet(StringComparer.Ordinal);
+        var batches = store.ListBatches().Where(b => ids.Contains(b.BatchId)).ToList();
+        var stored = outcomes.Count(o => o.Outcome != IngestOutcome.Quarantined);
+        console.WriteLine(string.Create(Inv, $"History: {outcomes.Count} export files from {folder.FullName}, {stored} stored"));
+        if (batches.Count > 0)
+        {
+            var versions = string.Join(", ", batches
+                .GroupBy(b => (b.Recipe, b.RecipeVersion))
+                .OrderBy(g => g.Key.Recipe, StringComparer.Ordinal).ThenBy(g => g.Key.RecipeVersion)
+                .Select(g => string.Create(Inv, $"{g.Key.Recipe} v{g.Key.RecipeVersion}: {g.Count()}")));
+            var flags = store.ListFlags().Count(f => ids.Contains(f.BatchId));
+            console.WriteLine(string.Create(
+                Inv,
+                $"  {batches.Count} batches ({Markup.Escape(versions)}), production days {batches.Min(b => b.ProductionDay):yyyy-MM-dd} to {batches.Max(b => b.ProductionDay):yyyy-MM-dd}, {flags} flags"));
+        }
+
+        console.WriteLine();
+    }
+
+    private static void WriteBatches(IAnsiConsole console, BatchStore store, IReadOnlySet<string> leaveOut)
     {
         var table = new Table().Title("Batches (latest revision)").AddColumns("day", "batch", "recipe", "rev", "step", "yield %", "AE %", "PMI", "closure %", "flags");
-        foreach (var summary in store.ListBatches().OrderBy(b => b.ProductionDay).ThenBy(b => b.BatchId, StringComparer.Ordinal))
+        foreach (var summary in store.ListBatches().Where(b => !leaveOut.Contains(b.BatchId)).OrderBy(b => b.ProductionDay).ThenBy(b => b.BatchId, StringComparer.Ordinal))
         {
             var view = store.GetLatestBatch(summary.BatchId)!;
             foreach (var step in view.Steps)

@@ -63,6 +63,25 @@ public class IdentityPropertyTests
 
     [Theory]
     [MemberData(nameof(Seeds))]
+    public void Per_material_parts_add_up_to_their_rungs(int seed)
+    {
+        // Tolerance: 1e-9 of m_in (floating-point rounding of sums in another order; the figures are kg read to 1 g).
+        foreach (var r in Results(seed))
+        {
+            var ladder = r.Ladder!;
+            var auxiliaries = ladder[LossRungKind.AuxiliariesNotRecovered];
+            var excess = ladder[LossRungKind.ExcessReactants];
+            Assert.NotEmpty(auxiliaries.Parts);
+            Assert.Equal(r.Reactants.Select(a => a.Material), excess.Parts.Select(p => p.Material));
+            Assert.True(Math.Abs(auxiliaries.Parts.Sum(p => p.Kg) - auxiliaries.Kg) <= 1e-9 * r.InputKg, $"seed {seed}: auxiliaries");
+            Assert.True(Math.Abs(excess.Parts.Sum(p => p.Kg) - excess.Kg) <= 1e-9 * r.InputKg, $"seed {seed}: excess reactants");
+            Assert.True(Math.Abs(excess.Parts.Single(p => p.Material == r.LimitingReactant).Kg) <= 1e-9 * r.InputKg, $"seed {seed}: limiting");
+            Assert.All(ladder.Rungs.Where(g => g != auxiliaries && g != excess), g => Assert.Empty(g.Parts));
+        }
+    }
+
+    [Theory]
+    [MemberData(nameof(Seeds))]
     public void Balance_figures_are_consistent(int seed)
     {
         foreach (var r in Results(seed))
@@ -132,7 +151,9 @@ public class IdentityPropertyTests
             OutputRow.Product(theoretical * Between(0.3, 1.15) * 100 / productAssay, productAssay),
             OutputRow.Waste(wasteProductKg + Between(0, inputKg / 2), productKg: wasteProductKg),
             OutputRow.Sample(0.5, productKg: 0.4),
-            OutputRow.Recovered(Between(0, inputKg / 4), random.Next(2) == 0 ? AuxiliaryRole.Solvent : AuxiliaryRole.Other),
+            random.Next(2) == 0
+                ? OutputRow.Recovered(Between(0, inputKg / 4), AuxiliaryRole.Solvent, "SOLV")
+                : OutputRow.Recovered(Between(0, inputKg / 4), AuxiliaryRole.Other, "R0"), // recovered excess reactant
         };
 
         return StepInput.Create(

@@ -22,7 +22,8 @@ public class CheckCommandTests
         var json = await ProgramRunner.RunAsync("check", file, "--json", "--data", data.Path);
 
         Assert.True(text.ExitCode == 0, $"exit {text.ExitCode}; stderr:\n{text.Stderr}");
-        Assert.Contains("batch KB3-BZ-0411: recipe BZC-410 v1, production day 2026-11-23", text.Stdout, StringComparison.Ordinal);
+        // The export states recipe_version 2 (sample-data/README.md, "Recipe version 2 in the week").
+        Assert.Contains("batch KB3-BZ-0411: recipe BZC-410 v2, production day 2026-11-23", text.Stdout, StringComparison.Ordinal);
         Assert.Contains("  step S1", text.Stdout, StringComparison.Ordinal);
         Assert.Contains("  step S2", text.Stdout, StringComparison.Ordinal);
         Assert.Equal(0, json.ExitCode);

@@ -1,6 +1,7 @@
 using System.Globalization;
 using System.Security.Cryptography;
 using System.Text;
+using BatchReconcile.Chemistry.Metrics;
 using BatchReconcile.Reconciliation.Flags;
 using BatchReconcile.Reconciliation.Outcomes;
 using BatchReconcile.Records.Definitions;
@@ -93,11 +94,20 @@ internal static class Build
         ClosurePct: nulls ? null : seed + 0.21,
         CombinedUncertaintyKg: seed + 0.22,
         Equivalents: nulls ? new Dictionary<string, double>() : new Dictionary<string, double> { ["ETOH"] = seed + 0.23, ["H2SO4"] = 0.1 / 3 },
-        Ladder: [new LadderRung("auxiliaries-not-recovered", "auxiliaries not recovered", seed + 0.24, 1.0 / 7), new LadderRung("yield-loss-unexplained", "yield loss, unexplained", -(seed + 0.25), -0.5)],
+        Ladder:
+        [
+            new LadderRung("auxiliaries-not-recovered", "auxiliaries not recovered", seed + 0.24, 1.0 / 7)
+            {
+                Parts = nulls ? [] : [new LadderPart("ETOH", seed + 0.20), new LadderPart("WATER", 0.04)],
+            },
+            new LadderRung("yield-loss-unexplained", "yield loss, unexplained", -(seed + 0.25), -0.5),
+        ],
         Flags: flags,
         Limits: nulls ? StepLimits.Unknown : new StepLimits(
             seed + 0.26, seed + 0.27, seed + 0.28, seed + 0.29, seed + 0.30,
-            new Dictionary<string, ValueRange> { ["ETOH"] = new(seed + 0.31, seed + 0.32) }, seed + 0.33));
+            new Dictionary<string, ValueRange> { ["ETOH"] = new(seed + 0.31, seed + 0.32) }, seed + 0.33),
+        SolventInKg: nulls ? null : seed + 0.34,
+        WaterInKg: nulls ? null : seed + 0.35);
 
     /// <summary>The batch reconciled: steps S1 and S2, each flag on the step it names.</summary>
     public static BatchOutcome Outcome(BatchRecord batch, params Flag[] flags) => new(

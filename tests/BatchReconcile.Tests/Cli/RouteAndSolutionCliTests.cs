@@ -132,6 +132,58 @@ public sealed class RouteAndSolutionCliTests : IDisposable
     }
 
     [Fact]
+    public void Batches_show_json_gives_solvent_water_and_the_per_material_parts_of_the_ladder()
+    {
+        var inbox = Path.Combine(_sandbox.Root, "in-parts");
+        Directory.CreateDirectory(inbox);
+        File.WriteAllText(Path.Combine(inbox, "good.csv"), Export("BNA-2611-034", 145.0));
+        Assert.Equal(0, Run("ingest", inbox).Exit);
+
+        using var doc = JsonDocument.Parse(Run("batches", "show", "BNA-2611-034", "--json").Out);
+        var steps = doc.RootElement.GetProperty("steps");
+
+        // Hand-worked (kg, JSON rounds to 0.001). M(BCN, C8H7N) = 96.088 + 7.056 + 14.007 = 117.151; M(BNA) = 107.156;
+        // M(HCl) = 36.458; M(H2O) = 18.015 (CIAAW 2021 abridged).
+        // S1, BCN + WATER -> PAA: BCN 150.0 kg @ 99 % = 148.5 kg (limiting, 1.267595 kmol); HCL36 600.0 kg = HCl 216.0 + water 384.0.
+        //   The water is a reactant: water charged 0, no solvent. Auxiliaries: BCN 1.5 (non-assay), HCL 216.0.
+        //   Excess: BCN 0; WATER 384.0 - 1.267595 x 18.015 = 384.0 - 22.836 = 361.164.
+        // S2: NAOCL13 750.0 kg = NaOCl 93.75 + NaOH 7.5 + water 648.75; NAOH50 200.0 kg = NaOH 100.0 + water 100.0: water 748.75.
+        // S3, BNA + HCL -> BNAHCL: BNA 95.0 kg (limiting, 0.886558 kmol); HCL36 100.0 kg = HCl 36.0 + water 64.0.
+        //   Water charged 64.0; auxiliaries: WATER 64.0; excess: BNA 0, HCL 36.0 - 0.886558 x 36.458 = 3.678.
+        double xi1 = 148.5 / 117.151;
+        double xi3 = 95.0 / 107.156;
+        var expected = new (int Step, double Solvent, double Water, (string, double)[] Auxiliaries, (string, double)[] Excess)[]
+        {
+            (0, 0.0, 0.0, [("BCN", 1.5), ("HCL", 216.0)], [("BCN", 0.0), ("WATER", 384.0 - (xi1 * 18.015))]),
+            (1, 0.0, 748.75, [], []),
+            (2, 0.0, 64.0, [("WATER", 64.0)], [("BNA", 0.0), ("HCL", 36.0 - (xi3 * 36.458))]),
+        };
+        foreach (var (i, solvent, water, auxiliaries, excess) in expected)
+        {
+            var step = steps[i];
+            Assert.Equal(solvent, step.GetProperty("solventInKg").GetDouble(), 0.0011);
+            Assert.Equal(water, step.GetProperty("waterInKg").GetDouble(), 0.0011);
+            var ladder = step.GetProperty("ladder").EnumerateArray().ToDictionary(r => r.GetProperty("rung").GetString()!);
+            if (auxiliaries.Length == 0)
+            {
+                continue; // S2 is checked for its water only
+            }
+
+            foreach (var (rung, parts) in new[] { ("auxiliaries-not-recovered", auxiliaries), ("excess-reactants", excess) })
+            {
+                var got = ladder[rung].GetProperty("parts").EnumerateArray()
+                    .Select(p => (p.GetProperty("material").GetString()!, p.GetProperty("kg").GetDouble())).ToList();
+                Assert.Equal(parts.Select(p => p.Item1), got.Select(p => p.Item1));
+                Assert.All(parts.Zip(got), pair => Assert.Equal(pair.First.Item2, pair.Second.Item2, 0.0011));
+                // Rounded parts add up to the rounded rung within half a gram per part.
+                Assert.Equal(ladder[rung].GetProperty("kg").GetDouble(), got.Sum(p => p.Item2), 0.0005 * (got.Count + 1));
+            }
+
+            Assert.Empty(ladder["co-products"].GetProperty("parts").EnumerateArray());
+        }
+    }
+
+    [Fact]
     public void Batches_show_and_the_digest_show_the_route_yield_and_a_held_back_intermediate()
     {
         var inbox = Path.Combine(_sandbox.Root, "in");

@@ -20,7 +20,8 @@ namespace BatchReconcile.Tests.Pipeline;
 
 /// <summary>
 /// Exports without recipe_version through the whole pipeline, against the repository's benzocaine recipe given
-/// a second version with a narrower hydrogen range (config/processes/benzocaine.json, changed in the test only).
+/// a second version with a narrower hydrogen range (config/processes/benzocaine.json, changed in the test only: its own
+/// version 2 from 2026-10-26 is replaced by the test's).
 /// The rows are those of sample-data/inbox/2026-11-23T2135_KB3-BZ-0411.csv (first recorded 2026-11-22T06:50+01:00),
 /// moved in time. The site is Europe/Berlin with production days from 06:00 (config/appsettings.json).
 /// </summary>
@@ -176,6 +177,13 @@ public sealed class RecipeVersionIngestTests : IDisposable
         var path = Path.Combine(processes, "benzocaine.json");
         var doc = JsonNode.Parse(File.ReadAllText(path))!.AsObject();
         var recipes = doc["recipes"]!.AsArray();
+
+        // The repository's own later versions (version 2 from 2026-10-26) are taken out: this test sets its own.
+        foreach (var later in recipes.Where(r => (string?)r!["code"] == "BZC-410" && (int)r!["version"]! != 1).ToList())
+        {
+            recipes.Remove(later);
+        }
+
         var v1 = recipes.Single(r => (string?)r!["code"] == "BZC-410")!.AsObject();
         v1["effectiveFrom"] = "2026-01-01";
         if (v2From is not null)
