@@ -241,6 +241,7 @@ public sealed partial class BatchStore
                 .Set("$expanded", step.Limits.ExpandedUncertaintyKg)
                 .Set("$ranges", step.Limits.EquivalentsRanges is { } ranges ? StoreJson.EquivalentsRanges(ranges) : null)
                 .Set("$inWasteMax", step.Limits.ProductInWasteMaxPct)
+                .Set("$recipeVersion", record.RecipeVersion).Set("$lastOutput", DbText.TimeOrNull(batch.Outcome.LastOutputAt))
                 .Execute();
         }
 

@@ -17,7 +17,14 @@ public static class Migrations
         new(6, "recipe version source per batch revision; the limits and settings that decided each step's flags, per step result", V6DecidingLimits, RecipeVersionSourceBackfill.Run),
         new(7, "route yield and intermediate links per batch revision", V7RouteYield),
         new(8, "digest freshness: a change count per production day kept by triggers, and what each digest write covered", V8DigestFreshness),
+        new(StepSeriesVersion, "across batches: recipe version and last output time copied onto step results, indexes for a step's or recipe's batches in production order, for batches by recipe and for the audit trail by time and kind", V9AcrossBatches),
     ];
+
+    /// <summary>
+    /// The migration that copies recipe_version and last_output_at onto step_result (the queries across batches:
+    /// <c>StepSeries</c>, <c>StepsOfRecipe</c>). Named so that its tests follow it if it is renumbered.
+    /// </summary>
+    public const int StepSeriesVersion = 9;
 
     public static int Latest => All[^1].Version;
 
@@ -357,6 +364,27 @@ public static class Migrations
                               WHERE f.production_day = digest.day AND f.is_current = 1 AND f.reviewed_at <= digest.written_at);
         UPDATE day_change SET digested =
             (SELECT d.seen_batches + d.seen_revisions + d.seen_withdrawn + d.seen_reviews FROM digest d WHERE d.day = day_change.day ORDER BY d.id DESC LIMIT 1);
+        """;
+
+    // Questions across batches: a step's figures (or every step of a recipe) batch by batch in production order,
+    // (production_day, last_output_at, batch_id), optionally of one recipe version. The revision's recipe version and
+    // last output time are copied onto its step results, as production day and recipe were by migration 2: a revision
+    // never changes them, so they stay as written; supersession only clears is_current. The history index gains
+    // last_output_at so that the order comes from the index (only batches of the same day and output time are sorted);
+    // a second index serves every step of a recipe. Batches of one recipe (current revisions only) and the audit trail
+    // by time and by kind get their own indexes. Existing rows are filled from their revisions.
+    private const string V9AcrossBatches = """
+        ALTER TABLE step_result ADD COLUMN recipe_version INTEGER;
+        ALTER TABLE step_result ADD COLUMN last_output_at TEXT;
+        UPDATE step_result SET recipe_version = r.recipe_version, last_output_at = r.last_output_at
+        FROM batch_revision r WHERE r.id = step_result.revision_ref;
+
+        DROP INDEX ix_step_result_history;
+        CREATE INDEX ix_step_result_history ON step_result (recipe, step, is_current, production_day, last_output_at);
+        CREATE INDEX ix_step_result_recipe ON step_result (recipe, is_current, production_day, last_output_at);
+        CREATE INDEX ix_batch_revision_recipe ON batch_revision (recipe, production_day) WHERE superseded_at IS NULL;
+        CREATE INDEX ix_audit_event_at ON audit_event (at);
+        CREATE INDEX ix_audit_event_kind ON audit_event (kind, at);
         """;
 
     private const string GenesisHash = "0000000000000000000000000000000000000000000000000000000000000000";
