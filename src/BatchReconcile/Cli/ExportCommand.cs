@@ -27,7 +27,7 @@ public static class ExportCommand
         "limiting_reactant", "extent_max_mol", "theoretical_kg", "actual_kg", "yield_pct", "atom_economy_pct", "stoichiometric_factor",
         "rme_pct", "mrp", "overall_rme_pct", "pmi", "complete_e_factor", "simple_e_factor", "mass_in_kg", "reactant_mass_kg",
         "stoichiometric_mass_kg", "recovered_kg", "mass_out_kg", "vented_kg", "vented_max_kg", "gap_kg", "closure_pct",
-        "combined_uncertainty_kg", "equivalents", "ladder_kg", "yield_min_pct", "yield_max_pct", "balance_tolerance_pct", "coverage_factor",
+        "combined_uncertainty_kg", "solvent_in_kg", "water_in_kg", "equivalents", "ladder_kg", "yield_min_pct", "yield_max_pct", "balance_tolerance_pct", "coverage_factor",
         "expanded_uncertainty_kg", "equivalents_ranges", "product_in_waste_max_pct", "route_yield_pct", "route_yield_note", "flags", "open_flags",
     ];
 
@@ -106,7 +106,7 @@ public static class ExportCommand
         {
             s.ExtentMaxMol, s.TheoreticalKg, s.ActualKg, s.YieldPct, s.AtomEconomyPct, s.StoichiometricFactor, s.RmePct, s.Mrp, s.OverallRmePct,
             s.Pmi, s.CompleteEFactor, s.SimpleEFactor, s.MassInKg, s.ReactantMassKg, s.StoichiometricMassKg, s.RecoveredKg, s.MassOutKg,
-            s.VentedKg, s.VentedMaxKg, s.GapKg, s.ClosurePct, s.CombinedUncertaintyKg,
+            s.VentedKg, s.VentedMaxKg, s.GapKg, s.ClosurePct, s.CombinedUncertaintyKg, s.SolventInKg, s.WaterInKg,
         })
         {
             csv.WriteField(value, default);
