@@ -81,16 +81,7 @@ public sealed partial class BatchStore
         lock (_gate)
         {
             ThrowIfDisposed();
-            using var query = new PreparedCommand(
-                _connection, null, $"SELECT {AuditWriter.Columns} FROM audit_event WHERE subject = $subject ORDER BY id", ("$subject", SqliteType.Text));
-            using var reader = query.Set("$subject", subject).Read();
-            var list = new List<AuditEntry>();
-            while (reader.Read())
-            {
-                list.Add(AuditWriter.Read(reader));
-            }
-
-            return list;
+            return ReadAuditTrailOf(subject);
         }
     }
 

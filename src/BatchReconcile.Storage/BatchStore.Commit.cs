@@ -242,6 +242,7 @@ public sealed partial class BatchStore
                 .Set("$ranges", step.Limits.EquivalentsRanges is { } ranges ? StoreJson.EquivalentsRanges(ranges) : null)
                 .Set("$inWasteMax", step.Limits.ProductInWasteMaxPct)
                 .Set("$solventIn", step.SolventInKg).Set("$waterIn", step.WaterInKg)
+                .Set("$recipeVersion", record.RecipeVersion).Set("$lastOutput", DbText.TimeOrNull(batch.Outcome.LastOutputAt))
                 .Execute();
         }
 

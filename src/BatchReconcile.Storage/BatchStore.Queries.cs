@@ -303,33 +303,8 @@ public sealed partial class BatchStore
     }
 
     /// <summary>Current revisions of all batches, or of one production day, by day and batch id.</summary>
-    public IReadOnlyList<BatchSummary> ListBatches(DateOnly? day = null)
-    {
-        lock (_gate)
-        {
-            ThrowIfDisposed();
-            using var query = new PreparedCommand(_connection, null, StoreQueries.Batches(day is not null), ("$day", SqliteType.Text));
-            if (day is { } d)
-            {
-                query.Set("$day", DbText.Day(d));
-            }
-
-            using var reader = query.Read();
-            var list = new List<BatchSummary>();
-            while (reader.Read())
-            {
-                list.Add(new BatchSummary(
-                    reader.GetString(0), reader.GetInt32(1), reader.GetString(2), reader.GetInt32(3), DbText.ParseDay(reader.GetString(4)), reader.GetInt32(5))
-                {
-                    StepCount = reader.GetInt32(6),
-                    RouteYieldPct = reader.NullableDouble(7),
-                    RouteNote = reader.NullableString(8),
-                });
-            }
-
-            return list;
-        }
-    }
+    public IReadOnlyList<BatchSummary> ListBatches(DateOnly? day = null) =>
+        ReadBatches(new BatchFilter(day, day), byBatchId: true);
 
     private const int FlagColumnCount = 18;
 

@@ -125,6 +125,9 @@ internal sealed class BatchGenerator
 
         rows = SplitToMinimum(rows);
         var batch = BatchId(index);
+        var version = _options.AlternateVersions && index % 2 == 0 && int.TryParse(template.RecipeVersion, NumberStyles.None, CultureInfo.InvariantCulture, out var v) && v > 1
+            ? (v - 1).ToString(CultureInfo.InvariantCulture)
+            : template.RecipeVersion;
         var line = new StringBuilder(160);
         foreach (var row in rows)
         {
@@ -135,7 +138,7 @@ internal sealed class BatchGenerator
                 ? "\"" + row.Quantity.Replace('.', ',') + "\""
                 : row.Quantity;
             line.Clear()
-                .Append(batch).Append(',').Append(template.Recipe).Append(',').Append(template.RecipeVersion).Append(',')
+                .Append(batch).Append(',').Append(template.Recipe).Append(',').Append(version).Append(',')
                 .Append(r.Step).Append(',').Append(r.Entry).Append(',').Append(r.Material).Append(',')
                 .Append(CsvLine.Quote(r.Stream)).Append(',').Append(quantity).Append(',').Append(r.Unit).Append(',')
                 .Append(r.Assay).Append(',').Append(row.Lot).Append(',')

@@ -26,4 +26,10 @@ internal sealed record GeneratorOptions
     public long OneFileBytes { get; init; }
 
     public string BatchPrefix { get; init; } = "SYN";
+
+    /// <summary>
+    /// When true, every second batch made from a template of recipe version N &gt; 1 states version N - 1, so
+    /// that any period of the history holds batches of two versions of that recipe (for <c>compare</c>).
+    /// </summary>
+    public bool AlternateVersions { get; init; } = true;
 }

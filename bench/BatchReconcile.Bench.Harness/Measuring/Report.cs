@@ -64,6 +64,19 @@ internal static class Report
             }
         }
 
+        s.AppendLine();
+        s.AppendLine("Across batches (BZC-410, the year up to the last stored day; whole process, start-up included):");
+        s.AppendLine();
+        s.AppendLine("| stored batches | period | BZC-410 batches in it | `trend --step S1` | `losses` | `compare --versions 1,2` |");
+        s.AppendLine("|---|---|---|---|---|---|");
+        foreach (var key in new[] { "smallHistory", "largeHistory" })
+        {
+            if (h[key] is { } x && x["trendSeconds"] is not null)
+            {
+                s.AppendLine(Inv($"| {x["storedBatches"]} | {x["analysisPeriod"]} | {x["analysisRecipeBatches"]} | {S(x["trendSeconds"])} s | {S(x["lossesSeconds"])} s | {S(x["compareSeconds"])} s |"));
+            }
+        }
+
         if (r["kernels"] is { } k)
         {
             s.AppendLine();

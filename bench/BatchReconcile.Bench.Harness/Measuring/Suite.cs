@@ -528,6 +528,9 @@ internal sealed partial class Suite(SuiteOptions o)
         return result;
     }
 
+    /// <summary>The two-step demo recipe with two versions; the generator alternates its batches between them.</summary>
+    private const string AnalysisRecipe = "BZC-410";
+
     private JsonObject History(string data, DateOnly day, DateOnly emptyDay)
     {
         var batches = (long)Scalar(Path.Combine(data, "batchreconcile.db"), "SELECT COUNT(*) FROM batch_revision WHERE superseded_at IS NULL");
@@ -556,6 +559,18 @@ internal sealed partial class Suite(SuiteOptions o)
             ["flagsListEmptyDaySeconds"] = Time("flags-empty", "flags", "list", "--day", emptyDay.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture), "--json"),
             ["startupChemMassSeconds"] = Time("chem", "chem", "mass", "H2O", "--json"),
         };
+
+        // Across batches (issue 11): a year of production up to the last stored day, or all of it when shorter.
+        var db = Path.Combine(data, "batchreconcile.db");
+        var last = DateOnly.ParseExact((string)Scalar(db, "SELECT max(production_day) FROM batch_revision WHERE superseded_at IS NULL"), "yyyy-MM-dd", CultureInfo.InvariantCulture);
+        var from = last.AddDays(-364).ToString("yyyy-MM-dd", CultureInfo.InvariantCulture);
+        var to = last.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture);
+        result["analysisPeriod"] = from + " to " + to;
+        result["analysisRecipeBatches"] = (long)Scalar(db, Inv($"SELECT COUNT(*) FROM batch_revision WHERE superseded_at IS NULL AND recipe = '{AnalysisRecipe}' AND production_day BETWEEN '{from}' AND '{to}'"));
+        result["trendSeconds"] = Time("trend", "trend", "--recipe", AnalysisRecipe, "--step", "S1", "--from", from, "--to", to, "--json");
+        result["lossesSeconds"] = Time("losses", "losses", "--recipe", AnalysisRecipe, "--from", from, "--to", to, "--json");
+        result["compareSeconds"] = Time("compare", "compare", "--recipe", AnalysisRecipe, "--versions", "1,2", "--from", from, "--to", to, "--json");
+        Log(Inv($"history {batches} batches, {result["analysisRecipeBatches"]} of {AnalysisRecipe} in {from}..{to}: trend {result["trendSeconds"]!["median"]} s, losses {result["lossesSeconds"]!["median"]} s, compare {result["compareSeconds"]!["median"]} s"));
         Log(Inv($"history {batches} batches ({onDay} on {dayText}): digest {result["digestSeconds"]!["median"]} s, flags list {result["flagsListSeconds"]!["median"]} s, empty day {result["flagsListEmptyDaySeconds"]!["median"]} s"));
         return result;
     }

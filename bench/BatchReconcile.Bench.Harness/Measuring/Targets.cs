@@ -57,7 +57,12 @@ internal static class Targets
         if (big?["smallHistory"] is { } small && big["largeHistory"] is { } largeHistory)
         {
             var sizes = Inv($"{largeHistory["storedBatches"]} vs {small["storedBatches"]} batches");
-            foreach (var (key, label) in new[] { ("digestSeconds", "digest --day"), ("flagsListSeconds", "flags list --day --json") })
+            foreach (var (key, label) in new[]
+            {
+                ("digestSeconds", "digest --day"), ("flagsListSeconds", "flags list --day --json"),
+                ("trendSeconds", "trend of one step over a year"), ("lossesSeconds", "losses over a year"),
+                ("compareSeconds", "compare of two versions over a year"),
+            })
             {
                 var at = Median(largeHistory[key]);
                 var ratio = at / Median(small[key]);

@@ -10,4 +10,10 @@ public sealed record BatchSummary(string BatchId, int Revision, string Recipe, i
     public double? RouteYieldPct { get; init; }
 
     public string? RouteNote { get; init; }
+
+    /// <summary>Flags of the revision that are not closed (open or in review); <see cref="FlagCount"/> counts every flag.</summary>
+    public int OpenFlagCount { get; init; }
+
+    /// <summary>When the batch's last output was recorded (the second key of the production order); null when unknown.</summary>
+    public DateTimeOffset? LastOutputAt { get; init; }
 }

@@ -18,7 +18,14 @@ public static class Migrations
         new(7, "route yield and intermediate links per batch revision", V7RouteYield),
         new(8, "digest freshness: a change count per production day kept by triggers, and what each digest write covered", V8DigestFreshness),
         new(9, "solvent and water charged per step result", V9SolventAndWater),
+        new(StepSeriesVersion, "across batches: recipe version and last output time copied onto step results, indexes for a step's or recipe's batches in production order, for batches by recipe and for the audit trail by time and kind", V10AcrossBatches),
     ];
+
+    /// <summary>
+    /// The migration that copies recipe_version and last_output_at onto step_result (the queries across batches:
+    /// <c>StepSeries</c>, <c>StepsOfRecipe</c>). Named so that its tests follow it if it is renumbered.
+    /// </summary>
+    public const int StepSeriesVersion = 10;
 
     public static int Latest => All[^1].Version;
 
@@ -366,6 +373,27 @@ public static class Migrations
     private const string V9SolventAndWater = """
         ALTER TABLE step_result ADD COLUMN solvent_in_kg REAL;
         ALTER TABLE step_result ADD COLUMN water_in_kg REAL;
+        """;
+
+    // Questions across batches: a step's figures (or every step of a recipe) batch by batch in production order,
+    // (production_day, last_output_at, batch_id), optionally of one recipe version. The revision's recipe version and
+    // last output time are copied onto its step results, as production day and recipe were by migration 2: a revision
+    // never changes them, so they stay as written; supersession only clears is_current. The history index gains
+    // last_output_at so that the order comes from the index (only batches of the same day and output time are sorted);
+    // a second index serves every step of a recipe. Batches of one recipe (current revisions only) and the audit trail
+    // by time and by kind get their own indexes. Existing rows are filled from their revisions.
+    private const string V10AcrossBatches = """
+        ALTER TABLE step_result ADD COLUMN recipe_version INTEGER;
+        ALTER TABLE step_result ADD COLUMN last_output_at TEXT;
+        UPDATE step_result SET recipe_version = r.recipe_version, last_output_at = r.last_output_at
+        FROM batch_revision r WHERE r.id = step_result.revision_ref;
+
+        DROP INDEX ix_step_result_history;
+        CREATE INDEX ix_step_result_history ON step_result (recipe, step, is_current, production_day, last_output_at);
+        CREATE INDEX ix_step_result_recipe ON step_result (recipe, is_current, production_day, last_output_at);
+        CREATE INDEX ix_batch_revision_recipe ON batch_revision (recipe, production_day) WHERE superseded_at IS NULL;
+        CREATE INDEX ix_audit_event_at ON audit_event (at);
+        CREATE INDEX ix_audit_event_kind ON audit_event (kind, at);
         """;
 
     private const string GenesisHash = "0000000000000000000000000000000000000000000000000000000000000000";

@@ -74,7 +74,7 @@ internal sealed class CommitStatements : IDisposable
                 recovered_kg, mass_out_kg, vented_kg, vented_max_kg, gap_kg, closure_pct, combined_uncertainty_kg,
                 equivalents, ladder, recipe, production_day, is_current,
                 yield_min_pct, yield_max_pct, balance_tolerance_pct, coverage_factor, expanded_uncertainty_kg,
-                equivalents_ranges, product_in_waste_max_pct, solvent_in_kg, water_in_kg)
+                equivalents_ranges, product_in_waste_max_pct, solvent_in_kg, water_in_kg, recipe_version, last_output_at)
             VALUES (
                 $revision, $step, $order, $hasRows, $limiting, $extent, $theoretical, $actual,
                 $yield, $ae, $sf, $rme, $mrp, $overallRme, $pmi,
@@ -82,7 +82,7 @@ internal sealed class CommitStatements : IDisposable
                 $recovered, $massOut, $vented, $ventedMax, $gap, $closure, $uncertainty,
                 $equivalents, $ladder, $recipe, $day, 1,
                 $yieldMin, $yieldMax, $tolerance, $k, $expanded,
-                $ranges, $inWasteMax, $solventIn, $waterIn)
+                $ranges, $inWasteMax, $solventIn, $waterIn, $recipeVersion, $lastOutput)
             """,
             ("$revision", I), ("$step", T), ("$order", I), ("$hasRows", I), ("$limiting", T), ("$extent", R), ("$theoretical", R), ("$actual", R),
             ("$yield", R), ("$ae", R), ("$sf", R), ("$rme", R), ("$mrp", R), ("$overallRme", R), ("$pmi", R),
@@ -90,7 +90,7 @@ internal sealed class CommitStatements : IDisposable
             ("$recovered", R), ("$massOut", R), ("$vented", R), ("$ventedMax", R), ("$gap", R), ("$closure", R), ("$uncertainty", R),
             ("$equivalents", T), ("$ladder", T), ("$recipe", T), ("$day", T),
             ("$yieldMin", R), ("$yieldMax", R), ("$tolerance", R), ("$k", R), ("$expanded", R),
-            ("$ranges", T), ("$inWasteMax", R), ("$solventIn", R), ("$waterIn", R));
+            ("$ranges", T), ("$inWasteMax", R), ("$solventIn", R), ("$waterIn", R), ("$recipeVersion", I), ("$lastOutput", T));
         InsertFlag = Make(
             """
             INSERT INTO flag (revision_ref, step, code, severity, measured, limit_value, unit, message, subject, state, created_at, production_day, is_current)

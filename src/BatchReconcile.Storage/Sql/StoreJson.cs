@@ -16,8 +16,9 @@ internal static class StoreJson
     public static string Equivalents(IReadOnlyDictionary<string, double> equivalents) =>
         JsonSerializer.Serialize(equivalents.OrderBy(e => e.Key, StringComparer.Ordinal).ToDictionary(e => e.Key, e => e.Value), Options);
 
+    // "{}" and "[]" are what StepsOfRecipe reads for the parts it was not asked for, once per row: not worth the parser.
     public static IReadOnlyDictionary<string, double> ParseEquivalents(string json) =>
-        JsonSerializer.Deserialize<Dictionary<string, double>>(json, Options) ?? [];
+        json == "{}" ? new Dictionary<string, double>() : JsonSerializer.Deserialize<Dictionary<string, double>>(json, Options) ?? [];
 
     /// <summary>Allowed equivalents by reagent, {"CODE":{"min":1.05,"max":1.2}}, in code order.</summary>
     public static string EquivalentsRanges(IReadOnlyDictionary<string, ValueRange> ranges) =>
@@ -30,7 +31,7 @@ internal static class StoreJson
     public static string Ladder(IReadOnlyList<LadderRung> ladder) => JsonSerializer.Serialize(ladder, Options);
 
     public static IReadOnlyList<LadderRung> ParseLadder(string json) =>
-        JsonSerializer.Deserialize<List<LadderRung>>(json, Options) ?? [];
+        json == "[]" ? [] : JsonSerializer.Deserialize<List<LadderRung>>(json, Options) ?? [];
 
     public static string Links(IReadOnlyList<IntermediateLink> links) => JsonSerializer.Serialize(links, Options);
 

@@ -94,7 +94,7 @@ internal static class StoreQueries
         """;
 
     private const string StepHistoryOrder = """
-        ORDER BY s.production_day DESC, r.last_output_at DESC, b.batch_id DESC
+        ORDER BY s.production_day DESC, s.last_output_at DESC, b.batch_id DESC
         LIMIT $limit
         """;
 
@@ -145,18 +145,164 @@ internal static class StoreQueries
                  b.batch_id, f.id
         """;
 
-    public static string Batches(bool byDay) =>
+    /// <summary>
+    /// Current batch revisions, filtered; in production order (day, last output, batch) or, with
+    /// <paramref name="byBatchId"/>, by day and batch id. A recipe is read from <c>ix_batch_revision_recipe</c>,
+    /// whose condition (<c>superseded_at IS NULL</c>) the query repeats word for word; days alone from
+    /// <c>ix_batch_revision_day</c>. Only the filters asked for are written into the text.
+    /// </summary>
+    public static string Batches(bool from, bool to, bool recipe, bool flaggedOnly, bool byBatchId = false) =>
         """
         SELECT b.batch_id, r.revision, r.recipe, r.recipe_version, r.production_day,
                (SELECT count(*) FROM flag f WHERE f.revision_ref = r.id),
-               (SELECT count(*) FROM step_result s WHERE s.revision_ref = r.id), r.route_yield_pct, r.route_note
+               (SELECT count(*) FROM step_result s WHERE s.revision_ref = r.id), r.route_yield_pct, r.route_note,
+               (SELECT count(*) FROM flag f WHERE f.revision_ref = r.id AND f.state <> 'closed'), r.last_output_at
         FROM batch_revision r
         JOIN batch b ON b.id = r.batch_ref
         WHERE r.superseded_at IS NULL
         """
-        + (byDay ? " AND r.production_day = $day" : string.Empty)
-        + """
+        + (recipe ? " AND r.recipe = $recipe" : string.Empty)
+        + (from ? " AND r.production_day >= $from" : string.Empty)
+        + (to ? " AND r.production_day <= $to" : string.Empty)
+        + (flaggedOnly ? " AND EXISTS (SELECT 1 FROM flag x WHERE x.revision_ref = r.id AND x.state <> 'closed')" : string.Empty)
+        + (byBatchId ? "\nORDER BY r.production_day, b.batch_id" : "\nORDER BY r.production_day, r.last_output_at, b.batch_id");
 
-        ORDER BY r.production_day, b.batch_id
+    /// <summary>
+    /// One figure of one recipe step, current revisions, in production order, read from <c>ix_step_result_history</c>
+    /// (recipe, step, current, day, last output): only batches of the same day and output time are sorted, by batch id.
+    /// <paramref name="valueColumn"/> is one of <see cref="Queries.StepMeasure"/>'s fixed column names.
+    /// </summary>
+    public static string StepSeries(string valueColumn, bool from, bool to, bool version) =>
+        $"""
+        SELECT b.batch_id, r.revision, s.recipe_version, s.production_day, s.last_output_at, {valueColumn},
+               (SELECT count(*) FROM flag f WHERE f.revision_ref = s.revision_ref AND f.step = s.step AND f.state <> 'closed')
+        FROM step_result s
+        JOIN batch_revision r ON r.id = s.revision_ref
+        JOIN batch b ON b.id = r.batch_ref
+        WHERE s.recipe = $recipe AND s.step = $step AND s.is_current = 1
+        """
+        + DayAndVersion(from, to, version)
+        + ProductionOrderByIndex;
+
+    /// <summary>The columns <see cref="StepsOfRecipe"/> gives before <see cref="StepColumns"/>.</summary>
+    public const int StepsOfRecipeLead = 12;
+
+    /// <summary>
+    /// Every current step result of a recipe with its batch, in production order and step order, read from
+    /// <c>ix_step_result_recipe</c> (recipe, current, day, last output).
+    /// </summary>
+    public static string StepsOfRecipe(bool from, bool to, bool version, Queries.StepParts parts = Queries.StepParts.All) =>
+        $"""
+        SELECT b.batch_id, r.revision, s.recipe_version, s.production_day, s.last_output_at, s.step_order,
+               r.route_yield_pct, r.route_theoretical_kg, r.route_note,
+               (SELECT count(*) FROM flag f WHERE f.revision_ref = s.revision_ref AND f.step = s.step),
+               (SELECT count(*) FROM flag f WHERE f.revision_ref = s.revision_ref AND f.step = s.step AND f.state <> 'closed'),
+               s.revision_ref,
+               {StepColumnsOf(parts)}
+        FROM step_result s
+        JOIN batch_revision r ON r.id = s.revision_ref
+        JOIN batch b ON b.id = r.batch_ref
+        WHERE s.recipe = $recipe AND s.is_current = 1
+        """
+        + DayAndVersion(from, to, version)
+        + ProductionOrderByIndex;
+
+    /// <summary>
+    /// Every current step result (optionally of one recipe, optionally of a range of days), in production order:
+    /// <c>export steps</c>. With a recipe it reads <c>ix_step_result_recipe</c>; without, days from <c>ix_step_result_day</c>.
+    /// </summary>
+    public static string StepsForExport(bool recipe, bool from, bool to) =>
+        $"""
+        SELECT b.batch_id, r.revision, s.recipe_version, s.production_day, s.last_output_at, s.step_order,
+               r.route_yield_pct, r.route_theoretical_kg, r.route_note,
+               (SELECT count(*) FROM flag f WHERE f.revision_ref = s.revision_ref AND f.step = s.step),
+               (SELECT count(*) FROM flag f WHERE f.revision_ref = s.revision_ref AND f.step = s.step AND f.state <> 'closed'),
+               s.recipe,
+               {StepColumns}
+        FROM step_result s
+        JOIN batch_revision r ON r.id = s.revision_ref
+        JOIN batch b ON b.id = r.batch_ref
+        WHERE s.is_current = 1
+        """
+        + (recipe ? " AND s.recipe = $recipe" : string.Empty)
+        + DayAndVersion(from, to, version: false)
+        + ProductionOrderByIndex;
+
+    /// <summary>
+    /// The steps of a recipe (any version, current revisions), by the step order of the newest batch that has each.
+    /// Walks the distinct steps through <c>ix_step_result_history</c> one seek at a time instead of reading every row.
+    /// </summary>
+    public const string RecipeSteps = """
+        WITH RECURSIVE steps (step) AS (
+            SELECT (SELECT min(step) FROM step_result WHERE recipe = $recipe)
+            UNION ALL
+            SELECT (SELECT min(x.step) FROM step_result x WHERE x.recipe = $recipe AND x.step > steps.step)
+            FROM steps WHERE steps.step IS NOT NULL
+        )
+        SELECT step, (SELECT s.step_order FROM step_result s WHERE s.recipe = $recipe AND s.step = steps.step AND s.is_current = 1
+                      ORDER BY s.production_day DESC LIMIT 1) AS step_order
+        FROM steps
+        WHERE step IS NOT NULL AND step_order IS NOT NULL
+        ORDER BY step_order, step
+        """;
+
+    /// <summary>
+    /// The production order as far as the indexes hold it: day, then last output time. SQLite then reads the index in
+    /// order and sorts nothing; rows of the same day and output time (rare: a batch's own steps, or batches without an
+    /// output time) are put in batch and step order by the store (<c>BatchStore.ProductionOrder</c>).
+    /// </summary>
+    private const string ProductionOrderByIndex = "\nORDER BY s.production_day, s.last_output_at";
+
+    /// <summary><see cref="StepColumns"/> with the JSON columns not asked for read as constants (empty, or NULL for the ranges).</summary>
+    private static string StepColumnsOf(Queries.StepParts parts)
+    {
+        var columns = StepColumns;
+        if (!parts.HasFlag(Queries.StepParts.Equivalents))
+        {
+            columns = Replace(Replace(columns, "s.equivalents,", "'{}',"), "s.equivalents_ranges,", "NULL,");
+        }
+
+        return parts.HasFlag(Queries.StepParts.Ladder) ? columns : Replace(columns, "s.ladder,", "'[]',");
+    }
+
+    private static string Replace(string text, string column, string constant) =>
+        text.Contains(column, StringComparison.Ordinal) ? text.Replace(column, constant, StringComparison.Ordinal)
+        : throw new InvalidOperationException($"{column} is not among the step columns.");
+
+    private static string DayAndVersion(bool from, bool to, bool version) =>
+        (from ? " AND s.production_day >= $from" : string.Empty)
+        + (to ? " AND s.production_day <= $to" : string.Empty)
+        + (version ? " AND s.recipe_version = $version" : string.Empty);
+
+    /// <summary>Audit entries by time and kind, oldest first; the kind from <c>ix_audit_event_kind</c>, time alone from <c>ix_audit_event_at</c>.</summary>
+    public static string Audit(bool from, bool to, bool kind) =>
+        $"SELECT {BatchReconcile.Storage.Audit.AuditWriter.Columns} FROM audit_event WHERE 1 = 1"
+        + (kind ? " AND (kind = $kind OR (kind >= $kindPrefix AND kind < $kindEnd))" : string.Empty)
+        + (from ? " AND at >= $from" : string.Empty)
+        + (to ? " AND at < $to" : string.Empty)
+        + " ORDER BY id";
+
+    public const string AuditKinds = "SELECT DISTINCT kind FROM audit_event ORDER BY kind";
+
+    public const string AuditEntry = $"SELECT {BatchReconcile.Storage.Audit.AuditWriter.Columns} FROM audit_event WHERE id = $id";
+
+    /// <summary>A flag's revision and batch, for <c>GetFlag</c>.</summary>
+    public const string FlagHeader = $"""
+        SELECT {FlagColumns}, f.revision_ref, b.batch_id, r.revision, r.recipe, r.recipe_version, r.production_day, n.revision
+        FROM flag f
+        JOIN batch_revision r ON r.id = f.revision_ref
+        JOIN batch b ON b.id = r.batch_ref
+        LEFT JOIN batch_revision n ON n.id = r.superseded_by
+        WHERE f.id = $id
+        """;
+
+    public const string StepOfRevision = $"""
+        SELECT {StepColumns}
+        FROM step_result s WHERE s.revision_ref = $revision AND s.step = $step
+        """;
+
+    public const string FlagsOfStep = $"""
+        SELECT {FlagColumns}
+        FROM flag f WHERE f.revision_ref = $revision AND f.step = $step ORDER BY f.id
         """;
 }

@@ -51,9 +51,14 @@ public static class BatchText
         string.Create(Inv, $"batch {SafeText.Escape(batch)}: recipe {SafeText.Escape(recipe)} v{version}{revision}, production day {day:yyyy-MM-dd}; recipe version source: {source?.ToText() ?? "unknown"}");
 
     /// <param name="steps">Each step with its flags and their stored ids (null when not stored).</param>
-    public static void Write(TextWriter o, string header, IEnumerable<string> notes, IEnumerable<(StepOutcome Step, IReadOnlyList<(Flag Flag, long? Id)> Flags)> steps)
+    /// <param name="writeHeader">False leaves out the header line (<c>flags show</c> prints its own).</param>
+    public static void Write(TextWriter o, string header, IEnumerable<string> notes, IEnumerable<(StepOutcome Step, IReadOnlyList<(Flag Flag, long? Id)> Flags)> steps, bool writeHeader = true)
     {
-        o.WriteLine(header);
+        if (writeHeader)
+        {
+            o.WriteLine(header);
+        }
+
         foreach (var note in notes)
         {
             o.WriteLine($"  note: {SafeText.Escape(note)}");

@@ -1,11 +1,16 @@
 using System.CommandLine;
 using System.Globalization;
+using BatchReconcile.Records;
 using BatchReconcile.Storage;
+using BatchReconcile.Storage.Queries;
 using Microsoft.Extensions.DependencyInjection;
 
 namespace BatchReconcile.Cli;
 
-/// <summary><c>batches show BATCH [--revision N] [--json]</c>: a stored batch, its steps and flags.</summary>
+/// <summary>
+/// <c>batches show BATCH [--revision N] [--json]</c>: a stored batch, its steps and flags;
+/// <c>batches list [--from D] [--to D] [--recipe CODE] [--flagged] [--json]</c>: current revisions in production order.
+/// </summary>
 public static class BatchesCommand
 {
     public static Command Create(GlobalOptions globals, TextWriter stdout)
@@ -39,6 +44,57 @@ public static class BatchesCommand
             return ExitCodes.Success;
         }, storeOnly: true));
 
-        return new Command("batches", "Stored batches") { show };
+        return new Command("batches", "Stored batches") { show, List(globals, stdout) };
     }
+
+    private static Command List(GlobalOptions globals, TextWriter stdout)
+    {
+        var history = new HistoryOptions();
+        var flagged = new Option<bool>("--flagged") { Description = "Only batches with a flag not yet closed (open or in review)" };
+        var json = new Option<bool>("--json") { Description = "Print one JSON document on stdout" };
+        var list = new Command("list", "Current batch revisions in production order: day, recipe and version, steps, route yield, open flags") { flagged, json };
+        history.AddTo(list);
+        list.SetAction(parse => HostedCommand.Run(parse, globals, service: false, host =>
+        {
+            var store = host.Services.GetRequiredService<BatchStore>();
+            var (from, to) = history.Days(parse);
+            var recipe = history.KnownRecipe(parse, store);
+            var batches = store.ListBatches(new BatchFilter(from, to, recipe, parse.GetValue(flagged)));
+            if (parse.GetValue(json))
+            {
+                JsonOutput.Write(stdout, batches.Select(b => new BatchListJson(
+                    b.BatchId, b.Revision, b.Recipe, b.RecipeVersion, b.ProductionDay.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture),
+                    b.StepCount, BatchJson.RoundPct(b.RouteYieldPct), b.RouteYieldPct is null ? b.RouteNote : null, b.FlagCount, b.OpenFlagCount)).ToList());
+                return ExitCodes.Success;
+            }
+
+            if (batches.Count == 0)
+            {
+                stdout.WriteLine($"no batches{(parse.GetValue(flagged) ? " with open flags" : string.Empty)}{HistoryOptions.Describe(recipe, from, to)}");
+                return ExitCodes.Success;
+            }
+
+            TextTable.Write(
+                stdout,
+                ["day", "batch", "rev", "recipe", "steps", "route yield", "open flags"],
+                [false, false, true, false, true, false, true],
+                batches.Select(b => new[]
+                {
+                    b.ProductionDay.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture),
+                    SafeText.Escape(b.BatchId),
+                    b.Revision.ToString(CultureInfo.InvariantCulture),
+                    string.Create(CultureInfo.InvariantCulture, $"{SafeText.Escape(b.Recipe)} v{b.RecipeVersion}"),
+                    b.StepCount.ToString(CultureInfo.InvariantCulture),
+                    b.RouteYieldPct is { } y ? y.ToString("F2", CultureInfo.InvariantCulture) + " %" : "not computable: " + SafeText.Escape(b.RouteNote ?? "no reason stored"),
+                    string.Create(CultureInfo.InvariantCulture, $"{b.OpenFlagCount} of {b.FlagCount}"),
+                }).ToList());
+            stdout.WriteLine(string.Create(CultureInfo.InvariantCulture, $"{batches.Count} batch{(batches.Count == 1 ? "" : "es")}"));
+            return ExitCodes.Success;
+        }, storeOnly: true));
+        return list;
+    }
+
+    /// <summary>One line of <c>batches list --json</c>; <c>routeYieldNote</c> says why <c>routeYieldPct</c> is null.</summary>
+    private sealed record BatchListJson(
+        string Batch, int Revision, string Recipe, int RecipeVersion, string Day, int Steps, double? RouteYieldPct, string? RouteYieldNote, int Flags, int OpenFlags);
 }
