@@ -49,6 +49,10 @@ public static class ReportCommand
         return path;
     }
 
+    /// <summary>A recipe code reduced to letters, digits and hyphens, for a file name the demo chooses.</summary>
+    public static string FileSafe(string code) =>
+        new string([.. code.Select(c => char.IsAsciiLetterOrDigit(c) || c == '-' ? char.ToLowerInvariant(c) : '-')]).Trim('-') is { Length: > 0 } name ? name : "recipe";
+
     /// <summary>The full path of --out; a folder that does not exist, or a path that is a folder, is bad input.</summary>
     public static string OutPath(string text)
     {

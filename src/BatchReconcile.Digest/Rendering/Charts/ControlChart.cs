@@ -13,11 +13,14 @@ internal static class ControlChart
     private const double Width = 720;
     private const double PlotLeft = 54;
     private const double PlotRight = 630;
-    private const double ITop = 22;
-    private const double IBottom = 222;
-    private const double MrTop = 262;
-    private const double MrBottom = 332;
-    private const double Height = 372;
+    private const double PlotTop = 22;
+    private const double PlotHeight = 200;
+    private const double MrGap = 40;
+    private const double MrHeight = 70;
+    private const double BottomSpace = 40;
+
+    /// <summary>Width of one character of a signal label at its size (px), to tell whether labels fit beside each other.</summary>
+    private const double LabelCharPx = 5.4;
 
     /// <summary>"R1" for rule-1, "R2,5" for rules 2 and 5.</summary>
     public static string Label(IReadOnlyList<string> signals) =>
@@ -29,30 +32,41 @@ internal static class ControlChart
         var limits = trend.Limits ?? throw new ArgumentException("A trend without limits is not charted.", nameof(trend));
         var points = trend.Points;
         var values = points.Select(p => p.Value).ToList();
+        var slot = (PlotRight - PlotLeft) / Math.Max(points.Count, 1);
+
+        // Labels beside the points while they fit; when they would overlap (many signals close together) every label
+        // stands upright in a strip above the chart, over its own point, so each stays readable.
+        var longest = points.Where(p => p.Signals.Count > 0).Select(p => Label(p.Signals).Length).DefaultIfEmpty(0).Max();
+        var upright = longest * LabelCharPx > slot * 2 - 2;
+        var strip = upright ? (longest * LabelCharPx) + 10 : 0;
+        var iTop = PlotTop + strip;
+        var iBottom = iTop + PlotHeight;
+        var mrTop = iBottom + MrGap;
+        var mrBottom = mrTop + MrHeight;
+        var height = mrBottom + BottomSpace;
         var low = Math.Min(values.DefaultIfEmpty(limits.Lcl).Min(), limits.Lcl);
         var high = Math.Max(values.DefaultIfEmpty(limits.Ucl).Max(), limits.Ucl);
         var pad = Math.Max((high - low) * 0.08, 1e-6);
-        var y = Axis.Over(low - pad, high + pad, IBottom, ITop, 5);
+        var y = Axis.Over(low - pad, high + pad, iBottom, iTop, 5);
         var unit = trend.Unit.Length > 0 ? " " + trend.Unit : string.Empty;
         var signalled = points.Count(p => p.Signals.Count > 0);
 
         var title = $"{trend.Measure} of recipe {recipe}, step {trend.Step} ({trend.StepName}), {points.Count} batches in production order: "
             + $"centre {Num(limits.Mean)}{unit}, UCL {Num(limits.Ucl)}, LCL {Num(limits.Lcl)} from a baseline of {limits.BaselineCount} batches; "
             + $"{signalled} point(s) break a run rule";
-        var svg = new Svg(Width, Height, title,
+        var svg = new Svg(Width, height, title,
             "Individuals chart (top): each batch's value, the centre line and the 3-sigma control limits from the shaded baseline; "
             + "filled squares labelled R and a rule number break a run rule. Moving-range chart (bottom): the difference between consecutive batches.");
         svg.Attribute("data-chart", "control").Attribute("data-step", trend.Step);
 
-        var slot = (PlotRight - PlotLeft) / Math.Max(points.Count, 1);
         double X(int i) => PlotLeft + (slot * (i + 0.5));
 
         // The baseline: the batches the limits were computed from.
         var baseLeft = PlotLeft + (slot * limits.BaselineStart);
         var baseWidth = slot * limits.BaselineCount;
-        svg.Rect(baseLeft, ITop, baseWidth, IBottom - ITop, Svg.Faint, attributes: [("data-baseline", "true")],
+        svg.Rect(baseLeft, iTop, baseWidth, iBottom - iTop, Svg.Faint, attributes: [("data-baseline", "true")],
             tooltip: $"baseline: {limits.BaselineCount} batches");
-        svg.Text(baseLeft + 3, ITop - 6, $"baseline ({limits.BaselineCount} batches)", "start", 9, Svg.Mid);
+        svg.Text(baseLeft + 3, upright ? 12 : iTop - 6, $"baseline ({limits.BaselineCount} batches)", "start", 9, Svg.Mid);
 
         foreach (var tick in y.Ticks())
         {
@@ -61,9 +75,9 @@ internal static class ControlChart
             svg.Text(PlotLeft - 6, ty + 3.5, DigestText.Number(tick, y.Decimals), "end", 9.5, Svg.Mid);
         }
 
-        svg.Line(PlotLeft, ITop, PlotLeft, IBottom, Svg.Mid);
-        svg.Line(PlotLeft, IBottom, PlotRight, IBottom, Svg.Mid);
-        svg.Text(14, (ITop + IBottom) / 2, trend.Measure + unit, "middle", 10.5, Svg.Ink, rotate: -90);
+        svg.Line(PlotLeft, iTop, PlotLeft, iBottom, Svg.Mid);
+        svg.Line(PlotLeft, iBottom, PlotRight, iBottom, Svg.Mid);
+        svg.Text(14, (iTop + iBottom) / 2, trend.Measure + unit, "middle", 10.5, Svg.Ink, rotate: -90);
 
         // Master-record limits only where they fall on the chart; the caption says when they do not.
         foreach (var (spec, name) in new[] { (trend.SpecMax, "spec max"), (trend.SpecMin, "spec min") })
@@ -88,8 +102,8 @@ internal static class ControlChart
             if (points[i].RecipeVersion != points[i - 1].RecipeVersion)
             {
                 var vx = PlotLeft + (slot * i);
-                svg.Line(vx, ITop, vx, MrBottom, Svg.Accent, 1, pattern: "6 3", role: "version");
-                svg.Text(vx + 3, IBottom - 4, "v" + points[i].RecipeVersion.ToString(System.Globalization.CultureInfo.InvariantCulture), "start", 9, Svg.Accent);
+                svg.Line(vx, iTop, vx, mrBottom, Svg.Accent, 1, pattern: "6 3", role: "version");
+                svg.Text(vx + 3, iBottom - 4, "v" + points[i].RecipeVersion.ToString(System.Globalization.CultureInfo.InvariantCulture), "start", 9, Svg.Accent);
             }
         }
 
@@ -108,6 +122,14 @@ internal static class ControlChart
             var label = Label(p.Signals);
             svg.Rect(X(i) - 3.5, py - 3.5, 7, 7, Svg.Ink, tooltip: $"{tooltip}; breaks {string.Join(", ", p.Signals)}",
                 attributes: [("data-batch", p.BatchId), ("data-signals", string.Join(' ', p.Signals))]);
+            if (upright)
+            {
+                // Read from below, ending just above the plot, straight over the point.
+                svg.Text(X(i) + 3, iTop - 4, label, "start", 8.5, Svg.Ink, bold: true, rotate: -90, attributes: [("data-signal-label", label)]);
+                svg.Line(X(i), iTop, X(i), py - 4, Svg.Light, 0.5);
+                continue;
+            }
+
             // Away from the centre line; staggered when the points are close, so neighbouring labels do not overlap.
             var above = p.Value >= limits.Mean;
             var offset = 9 + (slot < 14 && i % 2 == 1 ? 9 : 0);
@@ -117,7 +139,7 @@ internal static class ControlChart
         // Moving ranges.
         var mrValues = points.Where(p => p.MovingRange is not null).Select(p => p.MovingRange!.Value).ToList();
         var mrHigh = Math.Max(mrValues.DefaultIfEmpty(0).Max(), limits.MovingRangeUcl);
-        var my = Axis.Over(0, mrHigh * 1.05, MrBottom, MrTop, 2);
+        var my = Axis.Over(0, mrHigh * 1.05, mrBottom, mrTop, 2);
         foreach (var tick in my.Ticks())
         {
             var ty = my.Map(tick);
@@ -125,13 +147,15 @@ internal static class ControlChart
             svg.Text(PlotLeft - 6, ty + 3.5, DigestText.Number(tick, my.Decimals), "end", 9, Svg.Mid);
         }
 
-        svg.Line(PlotLeft, MrTop, PlotLeft, MrBottom, Svg.Mid);
-        svg.Line(PlotLeft, MrBottom, PlotRight, MrBottom, Svg.Mid);
-        svg.Text(14, (MrTop + MrBottom) / 2, "MR", "middle", 10, Svg.Ink, rotate: -90);
+        svg.Line(PlotLeft, mrTop, PlotLeft, mrBottom, Svg.Mid);
+        svg.Line(PlotLeft, mrBottom, PlotRight, mrBottom, Svg.Mid);
+        svg.Text(14, (mrTop + mrBottom) / 2, "MR", "middle", 10, Svg.Ink, rotate: -90);
         svg.Line(PlotLeft, my.Map(limits.MovingRangeUcl), PlotRight, my.Map(limits.MovingRangeUcl), Svg.Ink, 1, dashed: true, role: "mr-ucl");
         svg.Line(PlotLeft, my.Map(limits.MeanMovingRange), PlotRight, my.Map(limits.MeanMovingRange), Svg.Mid, 1, role: "mr-centre");
         svg.Text(PlotRight + 4, my.Map(limits.MovingRangeUcl) + 3, "UCL " + Num(limits.MovingRangeUcl), "start", 9, Svg.Ink);
-        svg.Text(PlotRight + 4, my.Map(limits.MeanMovingRange) + 3, "mean MR " + Num(limits.MeanMovingRange), "start", 9, Svg.Mid);
+        // The two labels sit 10 px apart at least, the mean's below its line when the limit is close above it.
+        var meanLabelY = Math.Max(my.Map(limits.MeanMovingRange) + 3, my.Map(limits.MovingRangeUcl) + 13);
+        svg.Text(PlotRight + 4, meanLabelY, "mean MR " + Num(limits.MeanMovingRange), "start", 9, Svg.Mid);
         var mrLine = new List<(double X, double Y)>();
         for (var i = 0; i < points.Count; i++)
         {
@@ -147,11 +171,11 @@ internal static class ControlChart
 
         if (points.Count > 0)
         {
-            svg.Text(PlotLeft, MrBottom + 14, DigestText.Date(points[0].Day), "start", 9, Svg.Mid);
-            svg.Text(PlotRight, MrBottom + 14, DigestText.Date(points[^1].Day), "end", 9, Svg.Mid);
+            svg.Text(PlotLeft, mrBottom + 14, DigestText.Date(points[0].Day), "start", 9, Svg.Mid);
+            svg.Text(PlotRight, mrBottom + 14, DigestText.Date(points[^1].Day), "end", 9, Svg.Mid);
         }
 
-        svg.Text((PlotLeft + PlotRight) / 2, MrBottom + 30, "batches in production order", "middle", 10.5);
+        svg.Text((PlotLeft + PlotRight) / 2, mrBottom + 30, "batches in production order", "middle", 10.5);
         return svg.ToMarkup();
     }
 

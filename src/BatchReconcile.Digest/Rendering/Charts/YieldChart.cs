@@ -93,7 +93,8 @@ internal static class YieldChart
 
             var tooltip = $"{point.BatchId} ({DigestText.Date(point.Day)}): {DigestText.Pct(v)} %"
                 + (point.Signals.Count > 0 ? $"; breaks {string.Join(", ", point.Signals.Select(x => x.Code))} (information, not a flag)" : string.Empty);
-            if (point.Signals.Count > 0)
+            // Only the day's batches are labelled (the caption names them); earlier signals are in the tooltip.
+            if (point.Signals.Count > 0 && point.OnDigestDay)
             {
                 // A run-rule signal is labelled like the report's control charts ("R2"), above the point.
                 var label = ControlChart.Label([.. point.Signals.Select(x => x.Code)]);
