@@ -167,7 +167,7 @@ public static class TrendCommand
             var p = t.Points[i];
             var inBase = i >= l.BaselineStart && i < l.BaselineStart + l.BaselineCount;
             var mark = (inBase ? "b" : "") + (p.Signals.Count > 0 ? "*" : "");
-            o.WriteLine(string.Create(Inv, $"  {i + 1,4} {mark,-4} {p.Day:yyyy-MM-dd}  {SafeText.Escape(p.BatchId),-16} {p.RecipeVersion,3} {F(p.Value),10} {(p.MovingRange is { } mr ? F(mr) : "-"),8}  {string.Join(", ", p.Signals)}"));
+            o.WriteLine(string.Create(Inv, $"  {i + 1,4} {mark,-4} {p.Day:yyyy-MM-dd}  {SafeText.Escape(p.BatchId),-16} {p.RecipeVersion,3} {F(p.Value),10} {(p.MovingRange is { } mr ? F(mr) : "-"),8}  {string.Join(", ", p.Signals)}").TrimEnd());
         }
 
         o.WriteLine();
