@@ -34,7 +34,7 @@ public static class CompareCommand
                 var comparison = Compare(store, recipe, steps.Select(s => (s, s)).ToList(), from, to, a, b);
                 if (parse.GetValue(shared.Json))
                 {
-                    JsonOutput.Write(stdout, Json(recipe, from, to, comparison));
+                    JsonOutput.Write(stdout, Json(recipe, from, to, comparison), AnalysisJson.Shared.CompareJson);
                 }
                 else
                 {

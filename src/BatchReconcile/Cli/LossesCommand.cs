@@ -4,7 +4,6 @@ using BatchReconcile.Digest.Model.Report;
 using BatchReconcile.RecipeAnalysis;
 using BatchReconcile.Records;
 using BatchReconcile.Storage;
-using BatchReconcile.Storage.Queries;
 using Microsoft.Extensions.DependencyInjection;
 
 namespace BatchReconcile.Cli;
@@ -27,10 +26,10 @@ public static class LossesCommand
             {
                 var store = host.Services.GetRequiredService<BatchStore>();
                 TrendCommand.RequireStep(store, recipe, null);
-                var losses = LossBuilder.Build(store.StepsOfRecipe(recipe, from, to, null, StepParts.Ladder));
+                var losses = LossBuilder.Build(store.LossTotalsOfRecipe(recipe, from, to));
                 if (parse.GetValue(shared.Json))
                 {
-                    JsonOutput.Write(stdout, Json(recipe, from, to, losses));
+                    JsonOutput.Write(stdout, Json(recipe, from, to, losses), AnalysisJson.Shared.LossesJson);
                 }
                 else
                 {

@@ -53,7 +53,7 @@ public static class TrendCommand
                 var trend = TrendBuilder.Build(stepCode, stepCode, what, series, choice);
                 if (parse.GetValue(shared.Json))
                 {
-                    JsonOutput.Write(stdout, Json(recipe, trend));
+                    JsonOutput.Write(stdout, Json(recipe, trend), AnalysisJson.Shared.TrendJson);
                 }
                 else
                 {

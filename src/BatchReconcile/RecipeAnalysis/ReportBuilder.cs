@@ -19,7 +19,7 @@ public static class ReportBuilder
         ArgumentNullException.ThrowIfNull(store);
         var codes = TrendCommand.RequireStep(store, recipe, null);
         var steps = codes.Select(c => (Code: c, Name: StepName(catalog, recipe, c))).ToList();
-        var rows = store.StepsOfRecipe(recipe, from, to, null, StepParts.Ladder);
+        var rows = store.StepsOfRecipe(recipe, from, to, null, StepParts.Figures);
 
         var trends = steps.Select(s =>
         {
@@ -31,7 +31,7 @@ public static class ReportBuilder
 
         var versions = rows.Select(r => r.RecipeVersion).Distinct().Order().ToList();
         var comparison = versions.Count >= 2 ? CompareCommand.Compare(store, recipe, steps, from, to, versions[^2], versions[^1]) : null;
-        return new ReportData(siteName, recipe, from, to, now, trends, LossBuilder.Build(rows), comparison)
+        return new ReportData(siteName, recipe, from, to, now, trends, LossBuilder.Build(store.LossTotalsOfRecipe(recipe, from, to)), comparison)
         {
             RuleDescriptions = RuleDescriptions,
         };
