@@ -9,28 +9,23 @@ namespace BatchReconcile.RecipeAnalysis;
 public static class LossBuilder
 {
     /// <param name="totals">The ladders summed by the store (<c>BatchStore.LossTotalsOfRecipe</c>).</param>
-    public static LossSummary Build(LossTotals totals)
+    public static LossSummary Build(RecipeLossTotals totals)
     {
         ArgumentNullException.ThrowIfNull(totals);
         var charged = totals.ChargedKg;
         // Recovered mass went back for reuse: it is where mass went, not a loss, so it is not in the Pareto.
-        var rungs = totals.Rungs.Where(r => r.RungKey != LadderRungKeys.Recovered).Select(r => new LossEntry(r.Step, r.RungKey, r.Label, null, r.Kg)).ToList();
+        var rungs = totals.Rungs.Where(r => r.Key != LadderRungKeys.Recovered).ToList();
         if (rungs.Count == 0 || !(charged > 0))
         {
             return new LossSummary(totals.Batches, charged, []);
         }
 
-        var pareto = LossPareto.Build(rungs, charged);
-        var byRung = pareto.ToDictionary(p => (p.Step, p.RungKey), p => p.Kg);
+        var pareto = LossPareto.Build(rungs.Select(r => new LossEntry(r.Step, r.Key, r.Label, null, r.Kg)), charged);
         // The parts are listed under their rung: passing them to the Pareto too would count the same mass twice in the shares.
         // A part that sums to nothing (the limiting reactant of "excess reactants") says nothing: left out.
-        var parts = totals.Parts
-            .Where(p => Math.Abs(p.Kg) > 1e-9 * charged && byRung.ContainsKey((p.Step, p.RungKey)))
-            .Select(p =>
-            {
-                var rung = byRung[(p.Step, p.RungKey)];
-                return new LossPart(p.Step, p.RungKey, p.Material, p.Kg, 100 * p.Kg / charged, rung != 0 ? 100 * p.Kg / rung : 0);
-            })
+        var parts = rungs
+            .SelectMany(r => r.Parts.Where(p => Math.Abs(p.Kg) > 1e-9 * charged)
+                .Select(p => new LossPart(r.Step, r.Key, p.Material, p.Kg, 100 * p.Kg / charged, r.Kg != 0 ? 100 * p.Kg / r.Kg : 0)))
             .ToList();
         return new LossSummary(
             totals.Batches,

@@ -19,7 +19,10 @@ public class ProcessDefinitionLoaderTests
 
         Assert.True(result.IsSuccess, result.ToString());
         Assert.Empty(result.Errors);
-        Assert.Equal(["BZC-410", "NBB-150", "PPZ-220"], result.Catalog.Recipes.Select(r => r.Code).Order(StringComparer.Ordinal));
+        // BZC-410 has two versions (the second takes effect on 2026-10-26, sample-data/README.md); the others one.
+        Assert.Equal(
+            ["BZC-410 v1", "BZC-410 v2", "NBB-150 v1", "PPZ-220 v1"],
+            result.Catalog.Recipes.Select(r => $"{r.Code} v{r.Version.ToString(System.Globalization.CultureInfo.InvariantCulture)}").Order(StringComparer.Ordinal));
         Assert.All(result.Files, f => Assert.StartsWith("processes/", f, StringComparison.Ordinal));
     }
 
