@@ -20,6 +20,9 @@ public sealed record FlaggedStep(
 
     public string Step => Outcome.Step;
 
+    /// <summary>The step's yield against its recent trend; null when not computed (too little history, or no yield).</summary>
+    public TrendNote? Trend { get; init; }
+
     /// <summary>k of the balance decision, as stored with the step; null when unknown.</summary>
     public double? CoverageFactor => Outcome.Limits.CoverageFactor;
 

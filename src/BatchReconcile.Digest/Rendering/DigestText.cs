@@ -113,6 +113,42 @@ public static class DigestText
 
     public static string Severity(FlagSeverity severity) => severity.ToText();
 
+    /// <summary>"Yield trend: 3rd of the last 5 batches below the centre line (centre 92.3 %, from the first 20 of the last 30 batches)."</summary>
+    public static string? TrendSentence(TrendNote trend)
+    {
+        ArgumentNullException.ThrowIfNull(trend);
+        return trend.Context is not { } context
+            ? null
+            : $"Yield trend: {context} (centre {Pct(trend.Centre)} %, from the first {Count(trend.BaselineCount)} of the last {Count(trend.HistoryCount)} batches).";
+    }
+
+    /// <summary>
+    /// The run rules a yield breaks, as information: "Information, not a flag: this yield is within the master-record limits
+    /// but breaks rule-2 of its recent trend (Nine points in a row on the same side of the centre line)." Null when none.
+    /// </summary>
+    public static string? SignalSentence(IReadOnlyList<RuleSignal> signals, bool withinLimits)
+    {
+        ArgumentNullException.ThrowIfNull(signals);
+        if (signals.Count == 0)
+        {
+            return null;
+        }
+
+        var rules = string.Join("; ", signals.Select(s => $"{s.Code} ({s.Description.TrimEnd('.')})"));
+        return withinLimits
+            ? $"Information, not a flag: this yield is within the master-record limits but breaks a run rule of its recent trend: {rules}."
+            : $"Information: this yield also breaks a run rule of its recent trend: {rules}.";
+    }
+
+    /// <summary>Whether a yield is within its limits (inclusive, 1e-9 relative as the flag rules); true when a limit is unknown.</summary>
+    public static bool WithinLimits(double? value, double? min, double? max) => value switch
+    {
+        null => true,
+        { } v when min is { } lo && v < lo - (1e-9 * Math.Max(1, Math.Abs(lo))) => false,
+        { } v when max is { } hi && v > hi + (1e-9 * Math.Max(1, Math.Abs(hi))) => false,
+        _ => true,
+    };
+
     public static string AgeDays(int days) => days == 1 ? "1 day" : days.ToString(Inv) + " days";
 
     public static string Count(int n) => n.ToString(Inv);

@@ -14,7 +14,7 @@ namespace BatchReconcile.Digest.Rendering;
 /// </summary>
 public static class HtmlDigestRenderer
 {
-    private const string Style = """
+    internal const string Style = """
         :root { color-scheme: light; }
         * { box-sizing: border-box; }
         body { margin: 0 auto; max-width: 60rem; padding: 1.5rem; color: #1f1f1f; background: #ffffff;
@@ -202,6 +202,19 @@ public static class HtmlDigestRenderer
                 html.Append("<p class=\"lead\">Flags: ").Append(H(string.Join(", ", codes))).Append("</p>\n");
             }
 
+            if (step.Trend is { } trend)
+            {
+                if (DigestText.TrendSentence(trend) is { } context)
+                {
+                    html.Append("<p class=\"lead trend-context\">").Append(H(context)).Append("</p>\n");
+                }
+
+                if (DigestText.SignalSentence(trend.Signals, DigestText.WithinLimits(o.YieldPct, o.Limits.YieldMinPct, o.Limits.YieldMaxPct)) is { } signal)
+                {
+                    html.Append("<p class=\"notice information\" data-information=\"run-rule\">").Append(H(signal)).Append("</p>\n");
+                }
+            }
+
             html.Append("<dl class=\"balance\">\n");
             Fact(html, "Charged", DigestText.Kg(o.MassInKg, dec) + " kg");
             Fact(html, "Out (weighed)", DigestText.Kg(o.MassOutKg, dec) + " kg");
@@ -286,6 +299,12 @@ public static class HtmlDigestRenderer
             html.Append(today.Count == 0
                 ? "no batch."
                 : H(string.Join("; ", today.Select(p => $"{p.BatchId} {DigestText.Pct(p.YieldPct)} %{Within(step, p)}"))) + ".");
+            foreach (var p in today.Where(p => p.Signals.Count > 0))
+            {
+                html.Append(" <span class=\"information\" data-information=\"run-rule\">").Append(H(p.BatchId)).Append(": ")
+                    .Append(H(DigestText.SignalSentence(p.Signals, Within(step, p).Length == 0)!)).Append("</span>");
+            }
+
             html.Append("</figcaption>\n</figure>\n");
         }
 

@@ -90,6 +90,19 @@ public static class MarkdownDigestRenderer
             var dec = DigestText.KgDecimals(o.MassInKg);
             md.Append("### Batch ").Append(E(step.BatchId)).Append(" rev ").Append(step.Revision).Append(", recipe ").Append(E(step.RecipeText))
                 .Append(", step ").Append(E(step.Step)).Append("\n\n");
+            if (step.Trend is { } trend)
+            {
+                if (DigestText.TrendSentence(trend) is { } context)
+                {
+                    md.Append(E(context)).Append("\n\n");
+                }
+
+                if (DigestText.SignalSentence(trend.Signals, DigestText.WithinLimits(o.YieldPct, o.Limits.YieldMinPct, o.Limits.YieldMaxPct)) is { } signal)
+                {
+                    md.Append("> ").Append(E(signal)).Append("\n\n");
+                }
+            }
+
             Row(md, "Loss ladder", "kg", "% of charged");
             md.Append("|---|---:|---:|\n");
             Row(md, "charged (all inputs)", DigestText.Kg(o.MassInKg, dec), "100.0");
@@ -134,7 +147,8 @@ public static class MarkdownDigestRenderer
             md.Append("|---|---|---|---|---|\n");
             foreach (var step in HtmlDigestRenderer.YieldOrder(data.Yields))
             {
-                var today = step.History.Where(p => p.OnDigestDay).Select(p => $"{E(p.BatchId)} {DigestText.Pct(p.YieldPct)}{HtmlDigestRenderer.Within(step, p)}");
+                var today = step.History.Where(p => p.OnDigestDay).Select(p => $"{E(p.BatchId)} {DigestText.Pct(p.YieldPct)}{HtmlDigestRenderer.Within(step, p)}"
+                    + (p.Signals.Count > 0 ? $" (run rules, information only: {string.Join(", ", p.Signals.Select(x => x.Code))})" : string.Empty));
                 var history = HistorySummary(step);
                 Row(md, E(step.Recipe), $"{E(step.Step)} {E(step.StepName)}", HtmlDigestRenderer.YieldLimits(step, unit: false),
                     string.Join("; ", today) is { Length: > 0 } t ? t : "none", history);

@@ -23,6 +23,10 @@ public static class CommandLine
         root.Subcommands.Add(FlagsCommand.Create(globals, stdout));
         root.Subcommands.Add(AuditCommand.Create(globals, stdout, stderr));
         root.Subcommands.Add(ExportCommand.Create(globals, stdout));
+        root.Subcommands.Add(TrendCommand.Create(globals, stdout));
+        root.Subcommands.Add(LossesCommand.Create(globals, stdout));
+        root.Subcommands.Add(CompareCommand.Create(globals, stdout));
+        root.Subcommands.Add(ReportCommand.Create(globals, stdout));
         root.Subcommands.Add(DemoCommand.Create(globals, stdout));
 
         var parsed = root.Parse(args);

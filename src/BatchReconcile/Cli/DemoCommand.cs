@@ -105,6 +105,12 @@ public static class DemoCommand
                 }
             }
 
+            if (WriteReport(services, folders) is { } report)
+            {
+                console.WriteLine(string.Create(Inv, $"Analysis report of recipe {report.Recipe} ({report.Batches} batches: trends with control limits, losses, versions compared):"));
+                console.WriteLine($"  {report.Path}");
+            }
+
             console.WriteLine("The figures support, not replace, the site's deviation procedure and qualified review.");
             return ExitCodes.Success;
         });
@@ -211,6 +217,23 @@ public static class DemoCommand
         return batches.Count == 0
             ? null
             : services.GetRequiredService<DigestWriter>().Write(batches.Max(b => b.ProductionDay), rewrite: false, by: "demo");
+    }
+
+    /// <summary>The scenario ends with the analysis report of the recipe with the most batches, under reports/ in the data folder.</summary>
+    private static (string Recipe, int Batches, string Path)? WriteReport(IServiceProvider services, DataFolders folders)
+    {
+        var busiest = services.GetRequiredService<BatchStore>().ListBatches()
+            .GroupBy(b => b.Recipe, StringComparer.Ordinal)
+            .OrderByDescending(g => g.Count()).ThenBy(g => g.Key, StringComparer.Ordinal)
+            .FirstOrDefault();
+        if (busiest is null)
+        {
+            return null;
+        }
+
+        var folder = Directory.CreateDirectory(Path.Combine(folders.Root, "reports")).FullName;
+        var path = ReportCommand.Write(services, busiest.Key, null, null, Path.Combine(folder, $"report-{ReportCommand.FileSafe(busiest.Key)}.html"));
+        return (busiest.Key, busiest.Count(), path);
     }
 
     private static void WhereEverythingWent(IAnsiConsole console, DataFolders folders, IReadOnlyList<FileOutcome> outcomes)

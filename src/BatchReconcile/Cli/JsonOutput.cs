@@ -21,6 +21,12 @@ public static class JsonOutput
         output.WriteLine(EscapeBidi(JsonSerializer.Serialize(value, Options)));
     }
 
+    /// <summary>The same document from source-generated metadata (whose options are a copy of <see cref="Options"/>).</summary>
+    public static void Write<T>(TextWriter output, T value, System.Text.Json.Serialization.Metadata.JsonTypeInfo<T> info)
+    {
+        output.WriteLine(EscapeBidi(JsonSerializer.Serialize(value, info)));
+    }
+
     /// <summary>
     /// The relaxed encoder escapes control characters but writes bidirectional controls (U+202E ...) raw,
     /// which a terminal shows as reversed text. Outside strings JSON is ASCII, so writing each of them as

@@ -199,8 +199,22 @@ public sealed class DigestWriter(
         var openEarlier = earlier.Select(f => new OpenFlagItem(
             f.Id, f.BatchId, f.Step, f.Code, f.Severity, f.ProductionDay, day.DayNumber - f.ProductionDay.DayNumber,
             new ReviewStatus(f.Review.State, f.Review.Outcome, f.Review.DeviationRef, f.Review.By))).ToList();
-        var flagged = store.FlaggedStepsOfDay(day).Select(ToDigest).ToList();
-        var yields = store.RecipeStepsOfDay(day).Select(key => Yields(key, day)).OfType<RecipeStepYields>().ToList();
+        var histories = new Dictionary<(string Recipe, string Step), IReadOnlyList<StepHistoryPoint>>();
+        IReadOnlyList<StepHistoryPoint> History(string recipe, string step)
+        {
+            if (!histories.TryGetValue((recipe, step), out var points))
+            {
+                points = store.StepHistory(recipe, step, RecipeStepYields.MaxHistory, day);
+                histories[(recipe, step)] = points;
+            }
+
+            return points;
+        }
+
+        var flagged = store.FlaggedStepsOfDay(day)
+            .Select(f => ToDigest(f) with { Trend = DigestTrends.Note(History(f.Recipe, f.Step.Outcome.Step), f.BatchId) })
+            .ToList();
+        var yields = store.RecipeStepsOfDay(day).Select(key => Yields(key, day, History(key.Recipe, key.Step))).OfType<RecipeStepYields>().ToList();
 
         return new DigestData(
             site.Value.Name,
@@ -226,9 +240,8 @@ public sealed class DigestWriter(
         new(f.BatchId, f.Revision, f.Recipe, f.Step.Outcome) { RecipeVersion = f.RecipeVersion, RecipeVersionSource = f.RecipeVersionSource };
 
     /// <summary>A recipe step's yields of the last batches up to the day, against the limits stored with the latest of them.</summary>
-    private RecipeStepYields? Yields(RecipeStepKey key, DateOnly day)
+    private RecipeStepYields? Yields(RecipeStepKey key, DateOnly day, IReadOnlyList<StepHistoryPoint> points)
     {
-        var points = store.StepHistory(key.Recipe, key.Step, RecipeStepYields.MaxHistory, day);
         if (points.Count == 0)
         {
             return null;
@@ -241,7 +254,8 @@ public sealed class DigestWriter(
             .Select(r => r.FindStep(key.Step)?.Name)
             .FirstOrDefault(n => n is not null) ?? key.Step;
         var latest = points[^1];
-        var history = points.Select(p => new YieldPoint(p.BatchId, p.ProductionDay, p.YieldPct, p.ProductionDay == day)).ToList();
+        var signals = DigestTrends.Signals(points);
+        var history = points.Select((p, i) => new YieldPoint(p.BatchId, p.ProductionDay, p.YieldPct, p.ProductionDay == day) { Signals = signals[i] }).ToList();
         return new RecipeStepYields(key.Recipe, key.Step, name, latest.YieldMinPct, latest.YieldMaxPct, history);
     }
 }

@@ -19,6 +19,9 @@ public sealed partial class DemoDigest : IAsyncLifetime
 
     public string HtmlPath { get; private set; } = string.Empty;
 
+    /// <summary>The analysis report the demo ends with (empty when it printed none).</summary>
+    public string ReportPath { get; private set; } = string.Empty;
+
     public string SiteName { get; private set; } = string.Empty;
 
     /// <summary>The day's flags as <c>flags list --day DAY --json</c> gives them.</summary>
@@ -37,7 +40,10 @@ public sealed partial class DemoDigest : IAsyncLifetime
         }
 
         Day = day.Groups["day"].Value;
-        var htmlFiles = demo.Stdout.Split('\n').Select(l => l.Trim()).Where(l => l.EndsWith(".html", StringComparison.Ordinal)).ToList();
+        var htmlFiles = demo.Stdout.Split('\n').Select(l => l.Trim())
+            .Where(l => l.EndsWith(".html", StringComparison.Ordinal) && Path.GetFileName(l).StartsWith("digest-", StringComparison.Ordinal)).ToList();
+        ReportPath = demo.Stdout.Split('\n').Select(l => l.Trim())
+            .SingleOrDefault(l => l.EndsWith(".html", StringComparison.Ordinal) && Path.GetFileName(l).StartsWith("report-", StringComparison.Ordinal)) ?? string.Empty;
         if (htmlFiles.Count != 1)
         {
             throw new InvalidOperationException($"demo printed {htmlFiles.Count} HTML digest paths, expected 1:\n{demo.Stdout}");

@@ -75,14 +75,24 @@ internal sealed class Svg
         return CloseShape("rect", tooltip);
     }
 
-    public Svg Line(double x1, double y1, double x2, double y2, string stroke, double width = 1, bool dashed = false)
+    /// <param name="pattern">A stroke-dasharray other than the dashed "4 3" (e.g. "1 2" dotted); null for none.</param>
+    public Svg Line(double x1, double y1, double x2, double y2, string stroke, double width = 1, bool dashed = false, string? pattern = null, string? role = null)
     {
         _body.Append("<line x1=\"").Append(N(x1)).Append("\" y1=\"").Append(N(y1))
             .Append("\" x2=\"").Append(N(x2)).Append("\" y2=\"").Append(N(y2))
             .Append("\" stroke=\"").Append(stroke).Append("\" stroke-width=\"").Append(N(width)).Append('"');
-        if (dashed)
+        if (pattern is not null)
+        {
+            _body.Append(" stroke-dasharray=\"").Append(Encode(pattern)).Append('"');
+        }
+        else if (dashed)
         {
             _body.Append(" stroke-dasharray=\"4 3\"");
+        }
+
+        if (role is not null)
+        {
+            _body.Append(" data-line=\"").Append(Encode(role)).Append('"');
         }
 
         _body.Append("/>\n");
@@ -102,20 +112,32 @@ internal sealed class Svg
         return this;
     }
 
-    public Svg Circle(double cx, double cy, double r, string fill, string stroke, string? tooltip = null)
+    public Svg Circle(double cx, double cy, double r, string fill, string stroke, string? tooltip = null, IReadOnlyList<(string Name, string Value)>? attributes = null)
     {
         _body.Append("<circle cx=\"").Append(N(cx)).Append("\" cy=\"").Append(N(cy)).Append("\" r=\"").Append(N(r))
             .Append("\" fill=\"").Append(fill).Append('"');
+        foreach (var (name, value) in attributes ?? [])
+        {
+            _body.Append(' ').Append(name).Append("=\"").Append(Encode(value)).Append('"');
+        }
+
         AppendStroke(stroke, dashed: false);
         return CloseShape("circle", tooltip);
     }
 
     /// <summary>Text at a point; <paramref name="anchor"/> is start, middle or end. The text is HTML-encoded here.</summary>
-    public Svg Text(double x, double y, string text, string anchor = "start", double size = 11, string fill = Ink, bool bold = false, double rotate = 0)
+    public Svg Text(
+        double x, double y, string text, string anchor = "start", double size = 11, string fill = Ink, bool bold = false, double rotate = 0,
+        IReadOnlyList<(string Name, string Value)>? attributes = null)
     {
         _body.Append("<text x=\"").Append(N(x)).Append("\" y=\"").Append(N(y))
             .Append("\" font-size=\"").Append(N(size)).Append("\" text-anchor=\"").Append(anchor)
             .Append("\" fill=\"").Append(fill).Append('"');
+        foreach (var (name, value) in attributes ?? [])
+        {
+            _body.Append(' ').Append(name).Append("=\"").Append(Encode(value)).Append('"');
+        }
+
         if (bold)
         {
             _body.Append(" font-weight=\"600\"");

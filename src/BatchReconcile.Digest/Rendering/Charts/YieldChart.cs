@@ -91,7 +91,16 @@ internal static class YieldChart
                 continue;
             }
 
-            var tooltip = $"{point.BatchId} ({DigestText.Date(point.Day)}): {DigestText.Pct(v)} %";
+            var tooltip = $"{point.BatchId} ({DigestText.Date(point.Day)}): {DigestText.Pct(v)} %"
+                + (point.Signals.Count > 0 ? $"; breaks {string.Join(", ", point.Signals.Select(x => x.Code))} (information, not a flag)" : string.Empty);
+            // Only the day's batches are labelled (the caption names them); earlier signals are in the tooltip.
+            if (point.Signals.Count > 0 && point.OnDigestDay)
+            {
+                // A run-rule signal is labelled like the report's control charts ("R2"), above the point.
+                var label = ControlChart.Label([.. point.Signals.Select(x => x.Code)]);
+                svg.Text(X(i), y.Map(v) - 7, label, "middle", 8.5, Svg.Ink, bold: true, attributes: [("data-signal-label", label)]);
+            }
+
             if (point.OnDigestDay)
             {
                 svg.Rect(X(i) - 4, y.Map(v) - 4, 8, 8, Svg.Ink, tooltip: tooltip);
