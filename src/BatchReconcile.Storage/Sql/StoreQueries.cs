@@ -208,25 +208,13 @@ internal static class StoreQueries
         + ProductionOrderByIndex;
 
     /// <summary>
-    /// The loss ladders of a recipe's current step rows summed inside SQLite, one row per step, rung and part material
-    /// (NULL for a rung without parts), from <c>ix_step_result_recipe</c>: reading and parsing 10,000s of ladders in
-    /// .NET costs far more. The rung's own kg is counted once per stored rung, on its first part (or its only row),
-    /// so the rung total is the sum of column 5 over its rows; column 6 is the part's kg. The recipe index is named:
-    /// left alone, the planner takes the history index for the GROUP BY and then reads every day of the recipe.
+    /// The rows whose loss ladders <c>LossTotalsOfRecipe</c> sums: revision, step, step order, mass in and the ladder JSON
+    /// of a recipe's current step rows in a period, from <c>ix_step_result_recipe</c> (named, so that the planner cannot
+    /// take the history index and read every day of the recipe).
     /// </summary>
-    public static string LossTotals(bool from, bool to) =>
-        """
-        SELECT s.step, min(s.step_order), j.value ->> 'key', max(j.value ->> 'label'), p.value ->> 'material',
-               total(CASE WHEN p.key IS NULL OR p.key = 0 THEN j.value ->> 'kg' END), total(p.value ->> 'kg')
-        FROM step_result s INDEXED BY ix_step_result_recipe, json_each(s.ladder) j LEFT JOIN json_each(j.value, '$.parts') p
-        WHERE s.recipe = $recipe AND s.is_current = 1
-        """
-        + DayAndVersion(from, to, version: false)
-        + "\nGROUP BY s.step, j.value ->> 'key', p.value ->> 'material'";
-
-    /// <summary>Batches, step rows and charged mass of a recipe's current step rows in a period (<see cref="LossTotals"/>).</summary>
-    public static string LossCharged(bool from, bool to) =>
-        "SELECT count(DISTINCT s.revision_ref), count(*), total(s.mass_in_kg) FROM step_result s INDEXED BY ix_step_result_recipe WHERE s.recipe = $recipe AND s.is_current = 1"
+    public static string LossRows(bool from, bool to) =>
+        "SELECT s.revision_ref, s.step, s.step_order, s.mass_in_kg, s.ladder FROM step_result s INDEXED BY ix_step_result_recipe"
+        + " WHERE s.recipe = $recipe AND s.is_current = 1"
         + DayAndVersion(from, to, version: false);
 
     /// <summary>

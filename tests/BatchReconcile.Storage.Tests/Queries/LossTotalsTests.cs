@@ -6,7 +6,7 @@ using BatchReconcile.Storage.Tests.Support;
 namespace BatchReconcile.Storage.Tests.Queries;
 
 /// <summary>
-/// Loss ladders summed by SQLite (<c>losses</c>, <c>report</c>) give exactly what summing the ladders read row by row
+/// Loss ladders summed by the store (<c>losses</c>, <c>report</c>) give exactly what summing the ladders read row by row
 /// gives, rung by rung and part by part, for current revisions only; and the sums come from the recipe index.
 /// </summary>
 public sealed class LossTotalsTests
@@ -92,14 +92,13 @@ public sealed class LossTotalsTests
         using var db = new TempDatabase();
         using var store = Filled(db);
 
-        foreach (var sql in new[] { StoreQueries.LossTotals(from, to), StoreQueries.LossCharged(from, to) })
+        foreach (var sql in new[] { StoreQueries.LossRows(from, to) })
         {
             var plan = Db.QueryPlan(store.Connection, sql, ("$recipe", Build.Recipe), ("$from", "2026-11-02"), ("$to", "2026-11-03"));
 
             var range = from && to ? " AND production_day>? AND production_day<?)" : from ? " AND production_day>?)" : ")";
             Assert.Contains(plan, line => line.StartsWith("SEARCH s USING ", StringComparison.Ordinal)
                 && line.Contains("INDEX ix_step_result_recipe (recipe=? AND is_current=?" + range, StringComparison.Ordinal));
-            // The ladders themselves are walked by json_each (a virtual table), never the step table.
             Assert.DoesNotContain(plan, line => line.StartsWith("SCAN s", StringComparison.Ordinal));
         }
     }
