@@ -20,20 +20,27 @@ public static class ReportBuilder
         var codes = TrendCommand.RequireStep(store, recipe, null);
         var steps = codes.Select(c => (Code: c, Name: StepName(catalog, recipe, c))).ToList();
         var rows = store.StepsOfRecipe(recipe, from, to, null, StepParts.Figures);
+        var versions = rows.Select(r => r.RecipeVersion).Distinct().Order().ToList();
+        // Over a change of recipe version the charts follow the newest version with its own baseline, once it has batches
+        // enough for a full default baseline; until then every batch of the period is charted (docs/analysis.md).
+        int? charted = versions.Count >= 2
+            && rows.Where(r => r.RecipeVersion == versions[^1]).Select(r => r.BatchId).Distinct(StringComparer.Ordinal).Count() >= BaselineChoice.DefaultCount
+            ? versions[^1] : null;
 
         var trends = steps.Select(s =>
         {
-            var trend = TrendBuilder.Build(s.Code, s.Name, StepMeasure.Yield, store.StepSeries(recipe, s.Code, StepMeasure.Yield, from, to), BaselineChoice.Default);
+            var trend = TrendBuilder.Build(s.Code, s.Name, StepMeasure.Yield, store.StepSeries(recipe, s.Code, StepMeasure.Yield, from, to, charted), BaselineChoice.Default);
             // The master-record limits stored with the latest batch of the step (never today's definitions).
             var latest = rows.LastOrDefault(r => r.Outcome.Step == s.Code);
             return trend with { SpecMin = latest?.Outcome.Limits.YieldMinPct, SpecMax = latest?.Outcome.Limits.YieldMaxPct };
         }).ToList();
 
-        var versions = rows.Select(r => r.RecipeVersion).Distinct().Order().ToList();
         var comparison = versions.Count >= 2 ? CompareCommand.Compare(store, recipe, steps, from, to, versions[^2], versions[^1]) : null;
         return new ReportData(siteName, recipe, from, to, now, trends, LossBuilder.Build(store.LossTotalsOfRecipe(recipe, from, to)), comparison)
         {
             RuleDescriptions = RuleDescriptions,
+            Versions = versions,
+            ChartedVersion = charted,
         };
     }
 

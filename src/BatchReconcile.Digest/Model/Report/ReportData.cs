@@ -20,6 +20,13 @@ public sealed record ReportData(
 {
     /// <summary>The plain sentence of each run rule code ("rule-1" ...), for the legends.</summary>
     public IReadOnlyDictionary<string, string> RuleDescriptions { get; init; } = new Dictionary<string, string>(StringComparer.Ordinal);
+
+    /// <summary>The recipe versions of the batches in the period, in order (empty: taken from the trend points).</summary>
+    public IReadOnlyList<int> Versions { get; init; } = [];
+
+    /// <summary>When the period holds several versions: the one whose batches the trends chart (the newest), with
+    /// limits from its own baseline. Null when the trends chart every batch of the period.</summary>
+    public int? ChartedVersion { get; init; }
 }
 
 /// <summary>One step's measure batch by batch in production order, with its individuals (I-MR) chart.</summary>

@@ -86,7 +86,7 @@ public static class HtmlReportRenderer
             .Append("<dl class=\"facts\">\n");
         Fact(html, "Batches", DigestText.Count(data.Losses.Batches));
         Fact(html, "Steps", H(string.Join(", ", data.Trends.Select(t => $"{t.Step} ({t.StepName})"))));
-        var versions = data.Trends.SelectMany(t => t.Points).Select(p => p.RecipeVersion).Distinct().Order().ToList();
+        var versions = data.Versions.Count > 0 ? data.Versions.ToList() : data.Trends.SelectMany(t => t.Points).Select(p => p.RecipeVersion).Distinct().Order().ToList();
         Fact(html, "Recipe versions", versions.Count == 0 ? "none" : H(string.Join(", ", versions.Select(v => "v" + v.ToString(Inv)))));
         Fact(html, "Run-rule signals", DigestText.Count(data.Trends.Sum(t => t.Points.Count(p => p.Signals.Count > 0))) + " point(s); information for review, not flags");
         html.Append("</dl>\n<p class=\"notice\">").Append(H(Cautions[0])).Append("</p>\n</header>\n");
@@ -99,6 +99,12 @@ public static class HtmlReportRenderer
         {
             html.Append("<p class=\"none\">The recipe has no stored steps in this period.</p>\n</section>\n");
             return;
+        }
+
+        if (data.ChartedVersion is { } charted)
+        {
+            html.Append("<p class=\"lead\">").Append(H(string.Create(Inv,
+                $"The charts show the batches of recipe v{charted}, the newest version in the period, with control limits from its own first batches: a deliberate change of recipe makes a new process, and limits from the version before would mark every batch after the change. The earlier versions are set against it under \"Recipe versions compared\"."))).Append("</p>\n");
         }
 
         foreach (var t in data.Trends)
