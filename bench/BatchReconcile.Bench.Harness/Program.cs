@@ -8,7 +8,7 @@ using BatchReconcile.Bench.Harness.Measuring;
 var repo = FindRepo();
 if (args.Length == 0 || args[0] is "-h" or "--help")
 {
-    Console.Error.WriteLine("usage: harness generate --out DIR [--batches N] [--seed S] [--faults 0.05] [--rows-per-step R] [--per-day 50] [--first-day 2024-01-01] [--batches-per-file K] [--one-file-mb M]");
+    Console.Error.WriteLine("usage: harness generate --out DIR [--batches N] [--seed S] [--faults 0.05] [--rows-per-step R] [--max-rows-per-step M] [--per-day 50] [--first-day 2024-01-01] [--batches-per-file K] [--one-file-mb M]");
     Console.Error.WriteLine("       harness soak [--kills 100] [--files-per-round 40] [--seed 11]");
     Console.Error.WriteLine("       harness measure [--quick] [--runs 5] [--small 1000] [--large 10000] [--big-batches 106000] [--big-runs 1] [--latency-files 20] [--rate 1] [--no-kernels]");
     return 2;
@@ -28,6 +28,7 @@ try
                 Seed = options.Int("seed", 1),
                 FaultShare = options.Double("faults", 0.05),
                 RowsPerStep = options.Int("rows-per-step", 0),
+                MaxRowsPerStep = options.Int("max-rows-per-step", 0),
                 BatchesPerDay = options.Int("per-day", 50),
                 FirstDay = DateOnly.ParseExact(options.Text("first-day") ?? "2024-01-01", "yyyy-MM-dd", CultureInfo.InvariantCulture),
                 BatchesPerFile = options.Int("batches-per-file", 1),
