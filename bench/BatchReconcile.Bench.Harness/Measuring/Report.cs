@@ -145,7 +145,7 @@ internal static class Report
         s.AppendLine();
         s.AppendLine("| files | rows | MB | floor (sqlite3 .import) | `ingest FOLDER` | `run` until drained | peer script | peer / ingest | ingest / floor | run / ingest | peak RSS ingest / run / peer |");
         s.AppendLine("|---|---|---|---|---|---|---|---|---|---|---|");
-        string R(string key) => Inv($"{sf[key]!["ofMedians"]} [{S(sf[key]!["perRound"])}]");
+        string R(string key) => Inv($"{sf[key]!["ofMedians"]} [{sf[key]!["perRound"]!["min"]}-{sf[key]!["perRound"]!["max"]}]");
         s.AppendLine(Inv($"| {sf["files"]} | {sf["rows"]} | {sf["megabytes"]} | {S(sf["floorSeconds"])} s | {S(sf["ingestSeconds"])} s | {S(sf["runSeconds"])} s | {S(sf["peerSeconds"])} s | {R("peerOverIngest")} | {R("ingestOverFloor")} | {R("runOverIngest")} | {Med(sf["ingestPeakMb"])} / {Med(sf["runPeakMb"])} / {Med(sf["peerPeakMb"])} MB |"));
     }
 
