@@ -150,7 +150,7 @@ def reconcile(step, rows, materials):
     f["closure"] = 100 * (m_out + vented) / m_in if m_in else None
     tol = step["balanceTolerancePct"] / 100 * m_in
     if gap - vent_range > max(tol, K * u):
-        flags.append(("balance-gap", gap, max(tol, K * u), f"{gap:.1f} kg not accounted for"))
+        flags.append(("balance-gap", gap - vent_range, max(tol, K * u), f"{gap:.1f} kg not accounted for"))
     elif -gap > max(tol, K * u):
         flags.append(("balance-surplus", gap, -max(tol, K * u), f"outputs exceed inputs by {-gap:.1f} kg"))
     return limiting, f, flags
