@@ -141,7 +141,7 @@ internal static class Report
     {
         s.AppendLine(Inv($"### Small-file backlog against a short script (issue 12): {sf["files"]} one-batch files, {sf["rowsPerFile"]} rows a file"));
         s.AppendLine();
-        s.AppendLine(Inv($"Side by side in one run, {sf["rounds"]} rounds, the order ({sf["order"]}). Peer: {sf["peer"]}. Times are wall time from process start, medians [min-max]; ratios are of the medians, with the spread of the same ratio within each round."));
+        s.AppendLine(Inv($"Side by side in one run, {sf["rounds"]} round(s), the order ({sf["order"]}). Peer: {sf["peer"]}. Times are wall time from process start, medians [min-max]; ratios are of the medians, with the spread of the same ratio within each round."));
         s.AppendLine();
         s.AppendLine("| files | rows | MB | floor (sqlite3 .import) | `ingest FOLDER` | `run` until drained | peer script | peer / ingest | ingest / floor | run / ingest | peak RSS ingest / run / peer |");
         s.AppendLine("|---|---|---|---|---|---|---|---|---|---|---|");
