@@ -8,9 +8,10 @@ using BatchReconcile.Bench.Harness.Measuring;
 var repo = FindRepo();
 if (args.Length == 0 || args[0] is "-h" or "--help")
 {
-    Console.Error.WriteLine("usage: harness generate --out DIR [--batches N] [--seed S] [--faults 0.05] [--rows-per-step R] [--per-day 50] [--first-day 2024-01-01] [--batches-per-file K] [--one-file-mb M]");
+    Console.Error.WriteLine("usage: harness generate --out DIR [--batches N] [--seed S] [--faults 0.05] [--rows-per-step R] [--max-rows-per-step M] [--per-day 50] [--first-day 2024-01-01] [--batches-per-file K] [--one-file-mb M]");
+    Console.Error.WriteLine("       harness peer [--files 10000] [--runs 5]");
     Console.Error.WriteLine("       harness soak [--kills 100] [--files-per-round 40] [--seed 11]");
-    Console.Error.WriteLine("       harness measure [--quick] [--runs 5] [--small 1000] [--large 10000] [--big-batches 106000] [--big-runs 1] [--latency-files 20] [--rate 1] [--no-kernels]");
+    Console.Error.WriteLine("       harness measure [--quick] [--runs 5] [--small 1000] [--large 10000] [--big-batches 106000] [--big-runs 1] [--small-files 10000] [--latency-files 20] [--rate 1] [--no-kernels]");
     return 2;
 }
 
@@ -28,6 +29,7 @@ try
                 Seed = options.Int("seed", 1),
                 FaultShare = options.Double("faults", 0.05),
                 RowsPerStep = options.Int("rows-per-step", 0),
+                MaxRowsPerStep = options.Int("max-rows-per-step", 0),
                 BatchesPerDay = options.Int("per-day", 50),
                 FirstDay = DateOnly.ParseExact(options.Text("first-day") ?? "2024-01-01", "yyyy-MM-dd", CultureInfo.InvariantCulture),
                 BatchesPerFile = options.Int("batches-per-file", 1),
@@ -35,6 +37,27 @@ try
             }, Path.Combine(repo, "sample-data", "inbox")).Write();
             Console.WriteLine(FormattableString.Invariant(
                 $"{set.Files} files, {set.Batches} batches, {set.Rows} rows, {set.Bytes} bytes; faults: {set.LowYield} low yield, {set.Gap} gap, {set.Malformed} malformed"));
+            return 0;
+        }
+
+        case "peer":
+        {
+            // Only the small-file comparison of issue 12: publish, generate, then ingest, run, the peer script and the floor side by side.
+            var work = Path.Combine(repo, "bench", "scratch");
+            var baseOptions = new SuiteOptions { Repo = repo, Work = work, Kernels = false, SmallFilesOnly = true };
+            var suite = baseOptions with
+            {
+                Runs = options.Int("runs", baseOptions.Runs),
+                SmallFileBacklog = options.Int("files", baseOptions.SmallFileBacklog),
+            };
+            var command = "bench/run " + string.Join(' ', args);
+            var results = new Suite(suite).Run(command);
+            var json = results.ToJsonString(new JsonSerializerOptions { WriteIndented = true });
+            var markdown = Report.PeerMarkdown(results);
+            Directory.CreateDirectory(Path.Combine(repo, "bench", "results"));
+            File.WriteAllText(Path.Combine(repo, "bench", "results", "peer.json"), json + "\n");
+            Report.WriteInto(Path.Combine(repo, "bench", "README.md"), markdown, Report.PeerBegin, Report.PeerEnd);
+            Console.WriteLine(markdown);
             return 0;
         }
 
@@ -51,6 +74,7 @@ try
                 BigFileBatches = options.Int("big-batches", baseOptions.BigFileBatches),
                 BigFileRuns = options.Int("big-runs", baseOptions.BigFileRuns),
                 LatencyFiles = options.Int("latency-files", baseOptions.LatencyFiles),
+                SmallFileBacklog = options.Int("small-files", baseOptions.SmallFileBacklog),
                 LatencyRatePerSecond = options.Double("rate", baseOptions.LatencyRatePerSecond),
                 Kernels = !options.Flag("no-kernels"),
             };

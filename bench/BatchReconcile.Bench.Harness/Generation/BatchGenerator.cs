@@ -123,7 +123,7 @@ internal sealed class BatchGenerator
                 break;
         }
 
-        rows = SplitToMinimum(rows);
+        rows = SplitToMinimum(Compact(rows));
         var batch = BatchId(index);
         var version = _options.AlternateVersions && index % 2 == 0 && int.TryParse(template.RecipeVersion, NumberStyles.None, CultureInfo.InvariantCulture, out var v) && v > 1
             ? (v - 1).ToString(CultureInfo.InvariantCulture)
@@ -208,6 +208,104 @@ internal sealed class BatchGenerator
 
         return result;
     }
+
+    /// <summary>
+    /// Compacts each step with more than <see cref="GeneratorOptions.MaxRowsPerStep"/> rows, one rung at a time,
+    /// stopping as soon as the step fits: (1) rows of the same entry, material, stream, unit and assay become one
+    /// (product drums, recovered receivers, repeated charges of one material), keeping the first row's place and lot;
+    /// (2) analysis rows are left out; (3) the waste streams become one; (4) samples join that waste stream. The
+    /// charged and isolated masses, the limiting reactant, the yield and the gross balance do not change; what a
+    /// compacted batch loses is detail (product found in a named stream, the sample share of the yield loss).
+    /// </summary>
+    private List<MutableRow> Compact(List<MutableRow> rows)
+    {
+        var max = _options.MaxRowsPerStep;
+        if (max <= 0)
+        {
+            return rows;
+        }
+
+        var result = new List<MutableRow>(rows.Count);
+        foreach (var group in rows.GroupBy(r => r.Source.Step))
+        {
+            var step = group.ToList();
+            if (step.Count > max)
+            {
+                step = Merge(step, r => r.Source.Entry is "analysis" ? null : string.Join('|', r.Source.Entry, r.Source.Material, r.Source.Stream, r.Source.Unit, r.Source.Assay));
+            }
+
+            if (step.Count > max)
+            {
+                step = step.Where(r => r.Source.Entry != "analysis").ToList();
+            }
+
+            if (step.Count > max)
+            {
+                step = Merge(step, r => r.Source.Entry == "waste" ? "waste" : null, "waste streams, combined");
+            }
+
+            if (step.Count > max && step.Any(r => r.Source.Entry == "waste"))
+            {
+                step = Merge(step, r => r.Source.Entry is "waste" or "sample" ? "waste" : null, "waste streams, combined");
+            }
+
+            result.AddRange(step);
+        }
+
+        return result;
+    }
+
+    /// <summary>Rows with the same key (null: never merged) become one at the first one's place: quantities summed, the first lot kept.</summary>
+    private static List<MutableRow> Merge(List<MutableRow> rows, Func<MutableRow, string?> key, string? stream = null)
+    {
+        var merged = new List<MutableRow>(rows.Count);
+        var first = new Dictionary<string, int>(StringComparer.Ordinal);
+        var parts = new List<List<MutableRow>>();
+        foreach (var row in rows)
+        {
+            var k = key(row);
+            if (k is not null && first.TryGetValue(k, out var at))
+            {
+                parts[at].Add(row);
+                continue;
+            }
+
+            if (k is not null)
+            {
+                first[k] = parts.Count;
+            }
+
+            parts.Add([row]);
+        }
+
+        foreach (var part in parts)
+        {
+            if (part.Count == 1)
+            {
+                merged.Add(part[0]);
+                continue;
+            }
+
+            var head = part[0];
+            // Only rows of one unit share a key, except samples joining the waste stream (rung 4): those are summed in kg.
+            var oneUnit = part.All(r => r.Source.Unit == head.Source.Unit);
+            var decimals = Math.Max(part.Max(r => Decimals(r.Quantity)), oneUnit ? 0 : 3);
+            var total = part.Sum(r => oneUnit ? Parse(r.Quantity) : Kg(r));
+            var source = stream is null ? head.Source : head.Source with { Entry = "waste", Material = string.Empty, Stream = stream, Unit = oneUnit ? head.Source.Unit : "kg", Assay = string.Empty };
+            merged.Add(new MutableRow(source, Format(total, decimals), stream is null ? head.Lot : string.Empty));
+        }
+
+        return merged;
+    }
+
+    private static double Kg(MutableRow row) => Parse(row.Quantity) * row.Source.Unit switch
+    {
+        "kg" => 1.0,
+        "g" => 1e-3,
+        "mg" => 1e-6,
+        "t" => 1e3,
+        _ => throw new InvalidOperationException($"template unit '{row.Source.Unit}' is not handled by the compaction"),
+    };
 
     private static string Scale(string quantity, double factor) =>
         quantity.Length == 0 ? quantity : Format(Parse(quantity) * factor, Decimals(quantity));

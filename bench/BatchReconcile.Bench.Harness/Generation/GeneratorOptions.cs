@@ -14,6 +14,12 @@ internal sealed record GeneratorOptions
     /// <summary>Minimum rows per step; steps with fewer rows get their product rows split into more drums. 0: as the templates.</summary>
     public int RowsPerStep { get; init; }
 
+    /// <summary>
+    /// Maximum rows per step (0: as the templates): steps with more rows are compacted, rung by rung, until they
+    /// fit or nothing is left to compact (BatchGenerator.Compact). Masses, yields and the balance stay those of the batch.
+    /// </summary>
+    public int MaxRowsPerStep { get; init; }
+
     /// <summary>Batches per production day, counted over the batch index (index / BatchesPerDay is the day number).</summary>
     public int BatchesPerDay { get; init; } = 50;
 

@@ -29,6 +29,12 @@ internal static class Report
             s.AppendLine(Inv($"| {b["files"]} | {b["rows"]} | {b["megabytes"]} | {b["floorSeconds"]!["runs"]} | {S(b["floorSeconds"])} s | {S(b["fileHandlingSeconds"], 3)} s | {S(i["wallSeconds"])} s | {i["filesPerSecond"]} | {i["rowsPerSecond"]} | {i["timesFloor"]} | {S(i["peakResidentMb"], 0)} MB | {S(run["wallSeconds"])} s | {run["filesPerSecond"]} | {run["rowsPerSecond"]} | {run["timesFloor"]} | {S(run["peakResidentMb"], 0)} MB | {b["databaseBytesPerStoredBatch"]} |"));
         }
 
+        if (r["smallFiles"] is { } sf)
+        {
+            s.AppendLine();
+            SmallFiles(s, sf);
+        }
+
         s.AppendLine();
         s.AppendLine("### Steady-state latency (rename into the inbox until the file leaves it, which is after its commit)");
         s.AppendLine();
@@ -105,18 +111,62 @@ internal static class Report
         return s.ToString();
     }
 
+    public const string PeerBegin = "<!-- peer:begin (written by bench/run peer) -->";
+    public const string PeerEnd = "<!-- peer:end -->";
+
+    /// <summary>The results of <c>bench/run peer</c>: machine, command, the small-file table and its targets.</summary>
+    public static string PeerMarkdown(JsonObject r)
+    {
+        var s = new StringBuilder();
+        var m = r["machine"]!;
+        s.AppendLine(Inv($"Measured {m["dateUtc"]} on commit `{m["commit"]}`{(m["srcDirty"]!.GetValue<bool>() ? " (with uncommitted changes in src/)" : "")}: {m["nproc"]} cores, {m["cpu"]}, .NET {m["dotnet"]}, sqlite3 {m["sqlite3"]}; load average {m["loadAverage"]} at the start, {m["loadAverageAtEnd"]} at the end."));
+        s.AppendLine();
+        s.AppendLine(Inv($"Command: `{r["command"]}`. Program measured: {r["build"]}, run as `dotnet batchreconcile.dll`."));
+        s.AppendLine();
+        SmallFiles(s, r["smallFiles"]!);
+        s.AppendLine();
+        s.AppendLine("| target | measured (ratio of medians) | met |");
+        s.AppendLine("|---|---|---|");
+        foreach (var t in r["targets"]!.AsArray())
+        {
+            var met = t!["met"]?.GetValue<bool>() switch { true => "yes", false => "**no**", null => "n/a" };
+            var note = t["note"]!.GetValue<string>();
+            s.AppendLine(Inv($"| {t["target"]} | {t["measured"]}{(note.Length > 0 ? " (" + note + ")" : "")} | {met} |"));
+        }
+
+        return s.ToString();
+    }
+
+    private static void SmallFiles(StringBuilder s, JsonNode sf)
+    {
+        s.AppendLine(Inv($"### Small-file backlog against a short script (issue 12): {sf["files"]} one-batch files, {sf["rowsPerFile"]} rows a file"));
+        s.AppendLine();
+        s.AppendLine(Inv($"Side by side in one run, {sf["rounds"]} round(s), the order ({sf["order"]}). Peer: {sf["peer"]}. Times are wall time from process start, medians [min-max]; ratios are of the medians, with the spread of the same ratio within each round."));
+        s.AppendLine();
+        s.AppendLine("| files | rows | MB | floor (sqlite3 .import) | `ingest FOLDER` | `run` until drained | peer script | peer / ingest | ingest / floor | run / ingest | peak RSS ingest / run / peer |");
+        s.AppendLine("|---|---|---|---|---|---|---|---|---|---|---|");
+        string R(string key) => Inv($"{sf[key]!["ofMedians"]} [{sf[key]!["perRound"]!["min"]}-{sf[key]!["perRound"]!["max"]}]");
+        s.AppendLine(Inv($"| {sf["files"]} | {sf["rows"]} | {sf["megabytes"]} | {S(sf["floorSeconds"])} s | {S(sf["ingestSeconds"])} s | {S(sf["runSeconds"])} s | {S(sf["peerSeconds"])} s | {R("peerOverIngest")} | {R("ingestOverFloor")} | {R("runOverIngest")} | {Med(sf["ingestPeakMb"])} / {Med(sf["runPeakMb"])} / {Med(sf["peerPeakMb"])} MB |"));
+    }
+
+    private static string Med(JsonNode? summary) =>
+        summary?["median"]?.GetValue<double>().ToString("F0", CultureInfo.InvariantCulture) ?? "-";
+
     /// <summary>Replaces the results section of the README (everything else in it is hand-written).</summary>
-    public static void WriteInto(string readme, string markdown)
+    public static void WriteInto(string readme, string markdown, string begin = Begin, string end = End) =>
+        Replace(readme, markdown, begin, end);
+
+    private static void Replace(string readme, string markdown, string beginMarker, string endMarker)
     {
         var text = File.ReadAllText(readme);
-        var begin = text.IndexOf(Begin, StringComparison.Ordinal);
-        var end = text.IndexOf(End, StringComparison.Ordinal);
+        var begin = text.IndexOf(beginMarker, StringComparison.Ordinal);
+        var end = text.IndexOf(endMarker, StringComparison.Ordinal);
         if (begin < 0 || end < begin)
         {
             throw new InvalidOperationException($"{readme} has no results markers");
         }
 
-        File.WriteAllText(readme, text[..(begin + Begin.Length)] + "\n\n" + markdown + "\n" + text[end..]);
+        File.WriteAllText(readme, text[..(begin + beginMarker.Length)] + "\n\n" + markdown + "\n" + text[end..]);
     }
 
     private static string S(JsonNode? summary, int decimals = 2)

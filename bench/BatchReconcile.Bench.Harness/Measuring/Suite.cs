@@ -43,11 +43,17 @@ internal sealed partial class Suite(SuiteOptions o)
         _results["build"] = "publish ReadyToRun " + Rid;
         var total = Stopwatch.StartNew();
         var buildSeconds = Build();
+        if (o.SmallFilesOnly)
+        {
+            _results["smallFiles"] = SmallFiles();
+            return Finish(total, buildSeconds);
+        }
 
         var small = Generate("backlog-small", new GeneratorOptions { OutputFolder = Path.Combine(o.Work, "sets", "backlog-small"), Batches = o.SmallBacklog, Seed = o.Seed + 1, FirstIndex = 900_000 });
         var large = Generate("backlog-large", new GeneratorOptions { OutputFolder = Path.Combine(o.Work, "sets", "backlog-large"), Batches = o.LargeBacklog, Seed = o.Seed, BatchesPerDay = o.BatchesPerDay });
         var backlog = new JsonArray { Backlog(small, keep: false, out _), Backlog(large, keep: true, out var largeStore) };
         _results["backlog"] = backlog;
+        _results["smallFiles"] = SmallFiles();
 
         _results["latency"] = new JsonArray { Latency(Config, "default"), Latency(ContrastConfig(), "contrast") };
 
@@ -58,12 +64,21 @@ internal sealed partial class Suite(SuiteOptions o)
             _results["kernels"] = Kernels();
         }
 
+        return Finish(total, buildSeconds);
+    }
+
+    private JsonObject Finish(Stopwatch total, double buildSeconds)
+    {
+        _results["machine"]!["loadAverageAtEnd"] = LoadAverage();
         _results["targets"] = Targets.Evaluate(_results);
         var measureSeconds = total.Elapsed.TotalSeconds - buildSeconds;
         _results["harnessSeconds"] = new JsonObject { ["buildAndPublish"] = Math.Round(buildSeconds, 1), ["measuring"] = Math.Round(measureSeconds, 1) };
         Log(Inv($"done: build and publish {buildSeconds:F1} s, measuring {measureSeconds:F1} s"));
         return _results;
     }
+
+    /// <summary>The 1, 5 and 15 minute load averages, as <c>uptime</c> prints them.</summary>
+    private static string LoadAverage() => string.Join(", ", File.ReadAllText("/proc/loadavg").Split(' ')[..3]);
 
     private JsonObject Machine()
     {
@@ -82,6 +97,8 @@ internal sealed partial class Suite(SuiteOptions o)
             ["dateUtc"] = DateTimeOffset.UtcNow.ToString("yyyy-MM-dd'T'HH:mm'Z'", CultureInfo.InvariantCulture),
             ["commit"] = commit,
             ["srcDirty"] = dirty,
+            // Other work on the machine while measuring (2 shared cores): the load averages at the start.
+            ["loadAverage"] = LoadAverage(),
         };
     }
 
@@ -94,7 +111,7 @@ internal sealed partial class Suite(SuiteOptions o)
             "-r", Rid, "--self-contained", "false", "-p:PublishReadyToRun=true", "-o", App, "-nologo", "-v", "q");
         Expect(exit == 0 && File.Exists(Dll), "the program did not publish; see " + Path.Combine(o.Work, "publish.out"));
         Log(Inv($"published in {seconds:F1} s"));
-        if (o.Kernels)
+        if (o.Kernels && !o.SmallFilesOnly)
         {
             // Built here so that the kernels' time below is measuring only.
             double built;

@@ -10,6 +10,12 @@ internal sealed record SuiteOptions
     public int SmallBacklog { get; init; } = 1_000;
     public int LargeBacklog { get; init; } = 10_000;
     public int LatencyFiles { get; init; } = 20;
+
+    /// <summary>One-batch files of about 10 rows (issue 12): ingest, run, the Python peer and the floor side by side.</summary>
+    public int SmallFileBacklog { get; init; } = 10_000;
+
+    /// <summary>Only publish and the small-file comparison (<c>bench/run peer</c>).</summary>
+    public bool SmallFilesOnly { get; init; }
     public double LatencyRatePerSecond { get; init; } = 1.0;
     public double ContrastSettleSeconds { get; init; } = 0.25;
 
@@ -28,6 +34,7 @@ internal sealed record SuiteOptions
         Runs = 1,
         SmallBacklog = 30,
         LargeBacklog = 100,
+        SmallFileBacklog = 60,
         LatencyFiles = 3,
         LatencyRatePerSecond = 2.0,
         BigFileBatches = 900,

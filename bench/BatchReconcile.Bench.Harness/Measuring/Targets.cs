@@ -37,6 +37,18 @@ internal static class Targets
             Add($"{files}-file backlog peak memory (ingest) < 250 MB", ingestPeak, "MB", ingestPeak < 250);
         }
 
+        if (r["smallFiles"] is { } sf)
+        {
+            var shape = Inv($"{sf["files"]}-file backlog of {sf["rowsPerFile"]} rows a file");
+            var peer = sf["peerOverIngest"]!["ofMedians"]!.GetValue<double>();
+            var floor = sf["ingestOverFloor"]!["ofMedians"]!.GetValue<double>();
+            var runs = sf["runOverIngest"]!["ofMedians"]!.GetValue<double>();
+            string Spread(string key) => Inv($"per round {sf[key]!["perRound"]!["min"]}-{sf[key]!["perRound"]!["max"]}, {sf["rounds"]} round{(sf["rounds"]!.GetValue<int>() == 1 ? "" : "s")}");
+            Add($"{shape}: peer script / ingest FOLDER >= 4", peer, "ratio", peer >= 4, Spread("peerOverIngest"));
+            Add($"{shape}: ingest FOLDER / sqlite3 floor <= 4", floor, "ratio", floor <= 4, Spread("ingestOverFloor"));
+            Add($"{shape}: run draining it / ingest FOLDER <= 1.2", runs, "ratio", runs <= 1.2, Spread("runOverIngest"));
+        }
+
         foreach (var latency in r["latency"]?.AsArray() ?? [])
         {
             if (latency!["settings"]!.GetValue<string>() == "default")
