@@ -48,22 +48,20 @@ public sealed partial class BatchStore
             using var transaction = _connection.BeginTransaction(deferred: false);
             using (var statements = new CommitStatements(_connection, transaction))
             {
-                for (var i = 0; i < files.Count; i++)
+                foreach (var file in files)
                 {
-                    var file = files[i];
-                    var savepoint = "file" + i.ToString(CultureInfo.InvariantCulture);
-                    transaction.Save(savepoint);
+                    statements.BeginFile.Execute();
                     try
                     {
-                        results.Add(CommitFile(statements, file, now, () => transaction.Rollback(savepoint)));
-                        transaction.Release(savepoint);
+                        results.Add(CommitFile(statements, file, now, statements.RollBackFile));
+                        statements.EndFile.Execute();
                     }
                     // A fault of the database itself (locked, full, read-only, I/O) is not the file's: it abandons the
                     // whole group (Guarded turns it into a transient StoreException) and every file stays in the inbox.
                     catch (Exception failure) when (failure is SqliteException s ? StoreFaults.Describe(s) is null
                         : failure is InvalidDataException or NotSupportedException or ArgumentException)
                     {
-                        RollBackFile(transaction, savepoint, file, failure);
+                        RollBackFile(statements, file, failure);
                         results.Add(new FileCommitResult(file.FileName, file.Sha256, null, null, [], file.Errors.Count, failure));
                     }
                 }
@@ -74,12 +72,12 @@ public sealed partial class BatchStore
         }
     }
 
-    private void RollBackFile(SqliteTransaction transaction, string savepoint, FileIngest file, Exception failure)
+    private static void RollBackFile(CommitStatements statements, FileIngest file, Exception failure)
     {
         try
         {
-            transaction.Rollback(savepoint);
-            transaction.Release(savepoint);
+            statements.RollBackFile();
+            statements.EndFile.Execute();
         }
         catch (SqliteException lost)
         {
@@ -160,10 +158,10 @@ public sealed partial class BatchStore
             : IngestOutcome.Stored;
 
         sql.FinishIngest.Set("$outcome", outcome.ToText()).Set("$batches", batchResults.Count).Set("$id", ingestId).Execute();
-        var listed = batchResults.Take(MaxAuditedBatches).Select(b => new { batch = b.BatchId, disposition = b.Disposition.ToText(), revision = b.Revision });
-        Audit(sql, now, "ingest." + outcome.ToText(), file, batchResults.Count <= MaxAuditedBatches
-            ? (object)new { file = file.FileName, sha256 = file.Sha256, batches = listed }
-            : new { file = file.FileName, sha256 = file.Sha256, batches = listed, batchCount = batchResults.Count, batchesNotListed = batchResults.Count - MaxAuditedBatches });
+        var listed = batchResults.Take(MaxAuditedBatches).Select(b => (b.BatchId, b.Disposition.ToText(), b.Revision));
+        var complete = batchResults.Count <= MaxAuditedBatches;
+        sql.Audit.Append(now, AuditWriter.SystemActor, "ingest." + outcome.ToText(), "file:" + file.Sha256, StoreJson.FileDetail(
+            file.FileName, file.Sha256, listed, complete ? null : batchResults.Count, complete ? null : batchResults.Count - MaxAuditedBatches));
         return new FileCommitResult(file.FileName, file.Sha256, outcome, ingestId, batchResults, 0, null);
     }
 
@@ -197,7 +195,7 @@ public sealed partial class BatchStore
             .Set("$lastOutput", DbText.TimeOrNull(batch.Outcome.LastOutputAt)).Set("$at", at)
             .Set("$routeYield", batch.Outcome.Route.YieldPct).Set("$routeTheoretical", batch.Outcome.Route.TheoreticalKg)
             .Set("$routeNote", batch.Outcome.Route.Reason)
-            .Set("$links", batch.Outcome.Links.Count == 0 ? "[]" : StoreJson.Links(batch.Outcome.Links))
+            .Set("$links", batch.LinksJson)
             .ScalarInt64();
 
         if (previousRef is { } old)
@@ -222,8 +220,10 @@ public sealed partial class BatchStore
 
         var flagIds = new List<long>();
         var order = 0;
+        var texts = batch.StepTexts;
         foreach (var step in batch.Outcome.Steps)
         {
+            var text = texts[order];
             sql.InsertStep
                 .Set("$revision", revisionId).Set("$step", step.Step).Set("$order", ++order).Set("$hasRows", step.HasRows ? 1 : 0)
                 .Set("$limiting", step.LimitingReactant).Set("$extent", step.ExtentMaxMol).Set("$theoretical", step.TheoreticalKg)
@@ -234,12 +234,12 @@ public sealed partial class BatchStore
                 .Set("$stoichMass", step.StoichiometricMassKg).Set("$recovered", step.RecoveredKg).Set("$massOut", step.MassOutKg)
                 .Set("$vented", step.VentedKg).Set("$ventedMax", step.VentedMaxKg).Set("$gap", step.GapKg)
                 .Set("$closure", step.ClosurePct).Set("$uncertainty", step.CombinedUncertaintyKg)
-                .Set("$equivalents", StoreJson.Equivalents(step.Equivalents)).Set("$ladder", StoreJson.Ladder(step.Ladder))
+                .Set("$equivalents", text.Equivalents).Set("$ladder", text.Ladder)
                 .Set("$recipe", record.RecipeCode).Set("$day", day)
                 .Set("$yieldMin", step.Limits.YieldMinPct).Set("$yieldMax", step.Limits.YieldMaxPct)
                 .Set("$tolerance", step.Limits.BalanceTolerancePct).Set("$k", step.Limits.CoverageFactor)
                 .Set("$expanded", step.Limits.ExpandedUncertaintyKg)
-                .Set("$ranges", step.Limits.EquivalentsRanges is { } ranges ? StoreJson.EquivalentsRanges(ranges) : null)
+                .Set("$ranges", text.EquivalentsRanges)
                 .Set("$inWasteMax", step.Limits.ProductInWasteMaxPct)
                 .Set("$solventIn", step.SolventInKg).Set("$waterIn", step.WaterInKg)
                 .Set("$recipeVersion", record.RecipeVersion).Set("$lastOutput", DbText.TimeOrNull(batch.Outcome.LastOutputAt))

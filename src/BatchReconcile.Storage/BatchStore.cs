@@ -18,6 +18,7 @@ public sealed partial class BatchStore : IDisposable
     private readonly StoreSettings _settings;
     private readonly Lock _gate = new();
     private SqliteConnection _connection;
+    private PreparedCommand? _findFile;
     private bool _disposed;
 
     // Set when a fault may have left the connection unable to write even after the cause is gone (SQLite opens
@@ -97,6 +98,7 @@ public sealed partial class BatchStore : IDisposable
             }
 
             var fresh = StoreConnectionFactory.Open(_connection.DataSource, _settings);
+            DropCachedStatements();
             _connection.Dispose();
             _connection = fresh;
             _reopen = false;
@@ -116,8 +118,9 @@ public sealed partial class BatchStore : IDisposable
         lock (_gate)
         {
             ThrowIfDisposed();
-            using var find = new PreparedCommand(_connection, null, CommitStatements.FindFileSql, ("$sha256", SqliteType.Text));
-            return ReadKnownFile(find.Set("$sha256", sha));
+            // Asked once per file before its group is committed: compiled once per connection.
+            _findFile ??= new PreparedCommand(_connection, null, CommitStatements.FindFileSql, ("$sha256", SqliteType.Text));
+            return ReadKnownFile(_findFile.Set("$sha256", sha));
         }
     }
 
@@ -151,51 +154,47 @@ public sealed partial class BatchStore : IDisposable
             }
 
             _disposed = true;
+            DropCachedStatements();
             _connection.Dispose();
         }
     }
 
-    private static KnownFile? ReadKnownFile(PreparedCommand find)
+    private void DropCachedStatements()
     {
-        using var reader = find.Read();
-        if (!reader.Read())
-        {
-            return null;
-        }
-
-        return new KnownFile(
-            reader.GetInt64(0),
-            reader.GetString(1),
-            reader.GetString(2),
-            IngestOutcomeText.Parse(reader.GetString(3)),
-            reader.GetInt32(4),
-            DbText.ParseTime(reader.GetString(5)));
+        _findFile?.Dispose();
+        _findFile = null;
     }
+
+    private static KnownFile? ReadKnownFile(PreparedCommand find) =>
+        find.ReadFirst(static row => new KnownFile(
+            row.GetInt64(0),
+            row.GetString(1),
+            row.GetString(2),
+            IngestOutcomeText.Parse(row.GetString(3)),
+            row.GetInt32(4),
+            DbText.ParseTime(row.GetString(5))));
 
     /// <summary>Compares a batch with its current stored revision.</summary>
     private static (BatchPlan Plan, long? BatchRef, long? CurrentRevisionRef) PlanBatch(PreparedCommand findBatch, string batchId, string content)
     {
-        using var reader = findBatch.Set("$batch", batchId).Read();
-        if (!reader.Read())
+        var stored = findBatch.Set("$batch", batchId).ReadFirst(static row =>
+            (Found: true, BatchRef: row.GetInt64(0), HasCurrent: !row.IsNull(1), RevisionRef: row.GetInt64(1), Revision: row.GetInt32(2), Content: row.NullableString(3)));
+        if (!stored.Found)
         {
             return (new BatchPlan(batchId, BatchDisposition.New, 1, content), null, null);
         }
 
-        var batchRef = reader.GetInt64(0);
-        if (reader.IsDBNull(1))
+        if (!stored.HasCurrent)
         {
             // Kept as a bug rather than healed: the unique index allows at most one current revision
             // and the commit always writes one, so a batch without one means the file was edited by hand.
             throw new InvalidDataException($"Batch {batchId} is stored without a current revision.");
         }
 
-        var revisionRef = reader.GetInt64(1);
-        var revision = reader.GetInt32(2);
-        var storedContent = reader.GetString(3);
-        var plan = string.Equals(storedContent, content, StringComparison.Ordinal)
-            ? new BatchPlan(batchId, BatchDisposition.Unchanged, revision, content)
-            : new BatchPlan(batchId, BatchDisposition.Revision, revision + 1, content);
-        return (plan, batchRef, revisionRef);
+        var plan = string.Equals(stored.Content, content, StringComparison.Ordinal)
+            ? new BatchPlan(batchId, BatchDisposition.Unchanged, stored.Revision, content)
+            : new BatchPlan(batchId, BatchDisposition.Revision, stored.Revision + 1, content);
+        return (plan, stored.BatchRef, stored.RevisionRef);
     }
 
     private void ThrowIfDisposed() => ObjectDisposedException.ThrowIf(_disposed, this);

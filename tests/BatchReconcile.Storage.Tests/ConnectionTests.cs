@@ -19,6 +19,10 @@ public sealed class ConnectionTests
         Assert.Equal("1", Db.Scalar(store.Connection, "PRAGMA foreign_keys"));
         Assert.Equal(busyMs, Db.Scalar(store.Connection, "PRAGMA busy_timeout"));
         Assert.Equal(synchronous, Db.Scalar(store.Connection, "PRAGMA synchronous"));
+
+        // temp_store MEMORY = 2 (sqlite.org/pragma.html#pragma_temp_store): the statement journals of the
+        // per-file savepoints stay in memory instead of temporary files.
+        Assert.Equal("2", Db.Scalar(store.Connection, "PRAGMA temp_store"));
         Assert.True(File.Exists(db.DatabasePath + "-wal"), "the write-ahead log file exists beside the database");
     }
 

@@ -7,8 +7,9 @@ namespace BatchReconcile.Storage.Audit;
 
 /// <summary>
 /// Appends entries to the audit chain inside the caller's transaction. Every entry is linked to
-/// the last one stored at that moment (read again for every entry, so a savepoint rolled back
-/// leaves no stale link) and hashed before it is inserted.
+/// the last one stored at that moment and hashed before it is inserted. The end of the chain is read
+/// from the table for the first entry and then kept; whoever rolls back to a savepoint calls
+/// <see cref="Forget"/>, so no stale link survives it.
 /// </summary>
 internal sealed class AuditWriter : IDisposable
 {
@@ -20,6 +21,7 @@ internal sealed class AuditWriter : IDisposable
     private readonly PreparedCommand _last;
     private readonly PreparedCommand _sequence;
     private readonly PreparedCommand _insert;
+    private (long Id, string Hash)? _appended;
 
     public AuditWriter(SqliteConnection connection, SqliteTransaction transaction)
     {
@@ -39,20 +41,24 @@ internal sealed class AuditWriter : IDisposable
         DateTimeOffset at, string actor, string kind, string subject, string detailJson,
         string? fromState = null, string? toState = null, string? note = null, string? deviationRef = null)
     {
-        long lastId = 0;
-        var previous = AuditCanonicalForm.GenesisHash;
-        using (var reader = _last.Read())
+        long id;
+        string previous;
+        if (_appended is { } mine)
         {
-            if (reader.Read())
-            {
-                lastId = reader.GetInt64(0);
-                previous = reader.NullableString(1) ?? string.Empty;
-            }
+            // This writer's own last entry: inside the transaction no one else can append, and a rollback
+            // to a savepoint makes the caller call Forget.
+            (id, previous) = (mine.Id + 1, mine.Hash);
+        }
+        else
+        {
+            var (found, lastId, lastHash) = _last.ReadFirst(static row => (true, row.GetInt64(0), row.NullableString(1) ?? string.Empty));
+            previous = found ? lastHash : AuditCanonicalForm.GenesisHash;
+
+            // The sequence, not the last id: entries cut off the end leave a gap the verifier reports
+            // instead of being silently reused.
+            id = Math.Max(lastId, _sequence.Scalar() is { } seq ? Convert.ToInt64(seq, CultureInfo.InvariantCulture) : 0) + 1;
         }
 
-        // The sequence, not the last id: entries cut off the end leave a gap the verifier reports
-        // instead of being silently reused.
-        var id = Math.Max(lastId, _sequence.Scalar() is { } seq ? Convert.ToInt64(seq, CultureInfo.InvariantCulture) : 0) + 1;
         var entry = new AuditEntry(
             id, DbText.Time(at), AsStored(actor), AsStored(kind), AsStored(subject),
             AsStoredOrNull(fromState), AsStoredOrNull(toState), AsStoredOrNull(note), AsStoredOrNull(deviationRef),
@@ -63,8 +69,12 @@ internal sealed class AuditWriter : IDisposable
             .Set("$from", entry.FromState).Set("$to", entry.ToState).Set("$note", entry.Note).Set("$deviation", entry.DeviationRef)
             .Set("$detail", entry.Detail).Set("$prev", entry.PreviousHash).Set("$hash", hash)
             .Execute();
+        _appended = (id, hash);
         return id;
     }
+
+    /// <summary>Reads the end of the chain from the table again at the next entry (after a rollback to a savepoint).</summary>
+    public void Forget() => _appended = null;
 
     public void Dispose()
     {

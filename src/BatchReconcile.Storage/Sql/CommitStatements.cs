@@ -31,6 +31,10 @@ internal sealed class CommitStatements : IDisposable
 
         const SqliteType T = SqliteType.Text, I = SqliteType.Integer, R = SqliteType.Real;
 
+        // Each file of a group is stored inside its own savepoint (one name, released before the next file).
+        BeginFile = Make("SAVEPOINT file");
+        EndFile = Make("RELEASE file");
+        RollBackToFile = Make("ROLLBACK TO file");
         FindFile = Make(FindFileSql, ("$sha256", T));
         FindBatch = Make(FindBatchSql, ("$batch", T));
         InsertIngest = Make(
@@ -103,6 +107,12 @@ internal sealed class CommitStatements : IDisposable
         Audit = new AuditWriter(connection, transaction);
     }
 
+    public PreparedCommand BeginFile { get; }
+
+    public PreparedCommand EndFile { get; }
+
+    private PreparedCommand RollBackToFile { get; }
+
     public PreparedCommand FindFile { get; }
 
     public PreparedCommand FindBatch { get; }
@@ -135,6 +145,13 @@ internal sealed class CommitStatements : IDisposable
     public PreparedCommand CloseSuperseded { get; }
 
     public AuditWriter Audit { get; }
+
+    /// <summary>Undoes everything of the current file and leaves its savepoint open.</summary>
+    public void RollBackFile()
+    {
+        RollBackToFile.Execute();
+        Audit.Forget();
+    }
 
     public void Dispose()
     {

@@ -46,4 +46,45 @@ internal static class StoreJson
             .ToList();
 
     public static string Detail(object detail) => JsonSerializer.Serialize(detail, Options);
+
+    /// <summary>
+    /// The detail of a stored file's entry (<c>ingest.stored</c>, <c>ingest.revision</c>, ...), written directly: it is
+    /// written once per file, and serialising anonymous objects cost more than the rest of the entry. The text is what
+    /// <see cref="Detail"/> writes for <c>new { file, sha256, batches = [{ batch, disposition, revision }], batchCount, batchesNotListed }</c>
+    /// (the last two only when some batches are not listed), so entries read the same whichever wrote them.
+    /// </summary>
+    public static string FileDetail(string file, string sha256, IEnumerable<(string Batch, string Disposition, int Revision)> listed, int? batchCount, int? notListed)
+    {
+        var buffer = new System.Buffers.ArrayBufferWriter<byte>(256);
+        using (var writer = new Utf8JsonWriter(buffer))
+        {
+            writer.WriteStartObject();
+            writer.WriteString("file", file);
+            writer.WriteString("sha256", sha256);
+            writer.WriteStartArray("batches");
+            foreach (var (batch, disposition, revision) in listed)
+            {
+                writer.WriteStartObject();
+                writer.WriteString("batch", batch);
+                writer.WriteString("disposition", disposition);
+                writer.WriteNumber("revision", revision);
+                writer.WriteEndObject();
+            }
+
+            writer.WriteEndArray();
+            if (batchCount is { } count)
+            {
+                writer.WriteNumber("batchCount", count);
+            }
+
+            if (notListed is { } rest)
+            {
+                writer.WriteNumber("batchesNotListed", rest);
+            }
+
+            writer.WriteEndObject();
+        }
+
+        return System.Text.Encoding.UTF8.GetString(buffer.WrittenSpan);
+    }
 }

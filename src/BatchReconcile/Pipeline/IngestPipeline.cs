@@ -206,8 +206,7 @@ public sealed class IngestPipeline(
             return ExportReader.Scan(file.FullPath, file.Name, current, zone, onBatch);
         }
 
-        using var stream = new MemoryStream(content, writable: false);
-        return ExportReader.Scan(stream, file.Name, current, zone, onBatch);
+        return ExportReader.Scan(content, file.Name, current, zone, onBatch);
     }
 
     private BatchIngest ReconcileOrFault(BatchRecord batch, ProcessCatalog current, DateTimeOffset arrivedAt)

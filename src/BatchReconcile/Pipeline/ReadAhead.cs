@@ -1,5 +1,4 @@
 using System.Runtime.ExceptionServices;
-using System.Collections.Concurrent;
 using BatchReconcile.Storage.Ingest;
 
 namespace BatchReconcile.Pipeline;
@@ -10,8 +9,9 @@ namespace BatchReconcile.Pipeline;
 /// reaches it, and by then they are usually read.
 /// </summary>
 /// <remarks>
-/// <para>One queue for the whole group, in file order, bounded to <see cref="Capacity"/> batches, so memory
-/// does not grow with the group or with a large file: the reader waits while the store catches up.</para>
+/// <para>One queue for the whole group, in file order, bounded to <see cref="Capacity"/> batches and
+/// <see cref="MaxRowsHeld"/> rows, so memory does not grow with the group or with a large file: the reader
+/// waits while the store catches up.</para>
 /// <para>The store may skip a file (same bytes as an earlier file of the group: it is never read); what
 /// was read of it is dropped when the store asks for a later file. A fault of the reader (an I/O error)
 /// is handed to the store, on its thread, when it asks for that file, as if the store had read the file
@@ -22,14 +22,26 @@ namespace BatchReconcile.Pipeline;
 public sealed class ReadAhead : IDisposable
 {
     /// <summary>Batches read ahead of the store at most.</summary>
-    public const int Capacity = 32;
+    /// <remarks>Enough for a whole group of small files, so the reader never waits for the store while the group
+    /// is being hashed; <see cref="MaxRowsHeld"/> bounds the memory when the batches are large.</remarks>
+    public const int Capacity = 1024;
 
-    // Blocking queues rather than channels: both sides are threads that wait, and a channel would wake
-    // them through the thread pool for every batch.
-    private readonly BlockingCollection<Func<Action<BatchIngest>, StreamedFileEnd>> _jobs = [];
-    private readonly BlockingCollection<Item> _read = new(Capacity);
-    private readonly CancellationTokenSource _stop = new();
+    /// <summary>Rows held in batches read ahead at most (one batch is always let through, however large).</summary>
+    public const int MaxRowsHeld = 50_000;
+
+    // One lock and Monitor waits rather than blocking collections: those spin (sched_yield) before they
+    // block, and with two threads on two cores the spinning took the CPU from the store's thread. Each
+    // side wakes the other only when the other waits.
+    private readonly object _gate = new();
+    private readonly Queue<Func<Action<BatchIngest>, StreamedFileEnd>> _jobs = new();
+    private readonly Queue<Item> _read = new();
     private readonly Thread _reader;
+    private bool _jobsComplete;
+    private bool _readComplete;
+    private bool _stopping;
+    private bool _readerWaits;
+    private bool _storeWaits;
+    private int _rowsHeld;
     private int _added;
     private int _next;
     private bool _disposed;
@@ -47,12 +59,32 @@ public sealed class ReadAhead : IDisposable
     {
         ArgumentNullException.ThrowIfNull(read);
         ObjectDisposedException.ThrowIf(_disposed, this);
-        _jobs.Add(read);
+        lock (_gate)
+        {
+            if (_jobsComplete)
+            {
+                throw new InvalidOperationException("The group is complete; no more files can be added.");
+            }
+
+            _jobs.Enqueue(read);
+            if (_readerWaits)
+            {
+                Monitor.PulseAll(_gate);
+            }
+        }
+
         return _added++;
     }
 
     /// <summary>No more files in this group: the reader stops when it has read them.</summary>
-    public void Complete() => _jobs.CompleteAdding();
+    public void Complete()
+    {
+        lock (_gate)
+        {
+            _jobsComplete = true;
+            Monitor.PulseAll(_gate);
+        }
+    }
 
     /// <summary>
     /// Hands the batches of file <paramref name="index"/> to <paramref name="storeBatch"/> as they are read
@@ -105,55 +137,134 @@ public sealed class ReadAhead : IDisposable
         }
 
         _disposed = true;
-        _jobs.CompleteAdding();
-        _stop.Cancel();
+        lock (_gate)
+        {
+            _stopping = true;
+            Monitor.PulseAll(_gate);
+        }
+
         _reader.Join();
-        _stop.Dispose();
-        _jobs.Dispose();
-        _read.Dispose();
     }
 
-    private Item Take() =>
-        _read.TryTake(out var item, Timeout.Infinite)
-            ? item
-            : throw new InvalidOperationException("The read-ahead stopped before the file was read.");
+    private Item Take()
+    {
+        lock (_gate)
+        {
+            while (_read.Count == 0 && !_readComplete)
+            {
+                _storeWaits = true;
+                Monitor.Wait(_gate);
+                _storeWaits = false;
+            }
+
+            if (_read.Count == 0)
+            {
+                throw new InvalidOperationException("The read-ahead stopped before the file was read.");
+            }
+
+            var item = _read.Dequeue();
+            _rowsHeld -= item.Rows;
+            // Woken with room for half the queue again, not for every batch taken.
+            if (_readerWaits && (_read.Count == 0 || (_read.Count <= Capacity / 2 && _rowsHeld <= MaxRowsHeld / 2)))
+            {
+                Monitor.PulseAll(_gate);
+            }
+
+            return item;
+        }
+    }
+
+    /// <summary>Queues what was read; waits while the queue is full. False when the read-ahead is stopping.</summary>
+    private bool Put(Item item)
+    {
+        lock (_gate)
+        {
+            while (!_stopping && _read.Count > 0 && (_read.Count >= Capacity || _rowsHeld + item.Rows > MaxRowsHeld))
+            {
+                _readerWaits = true;
+                Monitor.Wait(_gate);
+                _readerWaits = false;
+            }
+
+            if (_stopping)
+            {
+                return false;
+            }
+
+            _read.Enqueue(item);
+            _rowsHeld += item.Rows;
+            if (_storeWaits)
+            {
+                Monitor.PulseAll(_gate);
+            }
+
+            return true;
+        }
+    }
+
+    private Func<Action<BatchIngest>, StreamedFileEnd>? NextJob()
+    {
+        lock (_gate)
+        {
+            while (_jobs.Count == 0 && !_jobsComplete && !_stopping)
+            {
+                _readerWaits = true;
+                Monitor.Wait(_gate);
+                _readerWaits = false;
+            }
+
+            return _stopping || _jobs.Count == 0 ? null : _jobs.Dequeue();
+        }
+    }
 
     private void ReadAll()
     {
-        var token = _stop.Token;
         var file = 0;
         try
         {
-            foreach (var read in _jobs.GetConsumingEnumerable(token))
+            while (NextJob() is { } read)
             {
                 var current = file++;
                 Item end;
                 try
                 {
-                    end = new Item(current, null, read(batch => _read.Add(new Item(current, batch, null, null), token)), null);
+                    end = new Item(current, null, read(batch =>
+                    {
+                        if (!Put(new Item(current, batch, null, null)))
+                        {
+                            throw new OperationCanceledException();
+                        }
+                    }), null);
                 }
-                catch (OperationCanceledException) when (token.IsCancellationRequested)
+                catch (OperationCanceledException) when (Volatile.Read(ref _stopping))
                 {
-                    throw;
+                    return; // stopped by Dispose: the store has what it asked for
                 }
                 catch (Exception e)
                 {
                     end = new Item(current, null, null, ExceptionDispatchInfo.Capture(e));
                 }
 
-                _read.Add(end, token);
+                if (!Put(end))
+                {
+                    return;
+                }
             }
-        }
-        catch (OperationCanceledException) when (token.IsCancellationRequested)
-        {
-            // Stopped by Dispose: the store has what it asked for.
         }
         finally
         {
-            _read.CompleteAdding();
+            lock (_gate)
+            {
+                _readComplete = true;
+                Monitor.PulseAll(_gate);
+            }
         }
     }
 
     /// <summary>One thing read: a batch of <paramref name="File"/>, or how it ended (<paramref name="End"/> or <paramref name="Fault"/>).</summary>
-    private sealed record Item(int File, BatchIngest? Batch, StreamedFileEnd? End, ExceptionDispatchInfo? Fault);
+    private sealed record Item(int File, BatchIngest? Batch, StreamedFileEnd? End, ExceptionDispatchInfo? Fault)
+    {
+        /// <summary>What the item counts against <see cref="MaxRowsHeld"/>.</summary>
+        public int Rows => Batch is null ? 0 : Math.Max(1, Batch.Outcome.Batch.Rows.Count);
+    }
 }

@@ -113,6 +113,46 @@ public sealed class ReadAheadTests
         Assert.True(afterDispose <= ReadAhead.Capacity + 1, $"the reader stopped at the full queue, not after {afterDispose} batches");
     }
 
+    [Fact]
+    public async Task Large_batches_are_held_up_to_the_row_bound_and_a_batch_past_it_alone_still_goes_through()
+    {
+        // Each batch holds a fifth of the bound, so at most five wait in the queue however small the batch count;
+        // one batch of twice the bound is let through on its own rather than waiting forever.
+        var row = new RecordRow(2, "B", "BZC-410", 1, "S1", EntryKind.Charge, "NBA", null, 1.0, 1.0, MassUnit.Kilogram, null, null, null, []);
+        var fifth = Enumerable.Repeat(row, ReadAhead.MaxRowsHeld / 5).ToArray();
+        var huge = Enumerable.Repeat(row, ReadAhead.MaxRowsHeld * 2).ToArray();
+        BatchIngest Sized(string id, RecordRow[] rows) => new(new BatchOutcome(new BatchRecord(id, "BZC-410", 1, RecipeVersionSource.Export, null, rows, []), [], null), Day);
+        var produced = 0;
+        using var readAhead = new ReadAhead();
+        readAhead.Add(store =>
+        {
+            for (var b = 0; b < 20; b++)
+            {
+                store(Sized(Id(0, b), fifth));
+                Interlocked.Increment(ref produced);
+            }
+
+            return StreamedFileEnd.Valid;
+        });
+        readAhead.Add(store =>
+        {
+            store(Sized("huge", huge));
+            return StreamedFileEnd.Valid;
+        });
+        readAhead.Complete();
+
+        SpinWait.SpinUntil(() => Volatile.Read(ref produced) >= 5, TimeSpan.FromSeconds(10));
+        await Task.Delay(100);
+        Assert.Equal(5, Volatile.Read(ref produced));
+
+        var first = new List<string>();
+        Assert.Equal(StreamedFileEnd.Valid, readAhead.Consume(0, b => first.Add(b.BatchId)));
+        Assert.Equal(20, first.Count);
+        var second = new List<int>();
+        Assert.Equal(StreamedFileEnd.Valid, readAhead.Consume(1, b => second.Add(b.Outcome.Batch.Rows.Count)));
+        Assert.Equal([ReadAhead.MaxRowsHeld * 2], second);
+    }
+
     private static StreamedFileEnd Produce(Action<BatchIngest> store, int file, int batches)
     {
         for (var b = 0; b < batches; b++)

@@ -1,3 +1,4 @@
+using System.Buffers;
 using System.Text.Unicode;
 using static System.FormattableString;
 
@@ -32,7 +33,9 @@ internal sealed class ExportInputGuard(Stream inner) : Stream
     private const int MaxNotUtf8Lines = 1000;
 
     private readonly HashSet<long> _notUtf8 = [];
-    private byte[] _buffer = new byte[2 * Chunk];
+    // Rented, not allocated: a fresh 128 KiB buffer per file is a large-object allocation, and with many small
+    // files those made the collector run a full collection every few dozen files.
+    private byte[] _buffer = ArrayPool<byte>.Shared.Rent(2 * Chunk);
     private int _start;    // next byte to hand on
     private int _ready;    // end of the lines that passed
     private int _end;      // end of the bytes read
@@ -116,6 +119,19 @@ internal sealed class ExportInputGuard(Stream inner) : Stream
 
     public override void SetLength(long value) => throw new NotSupportedException();
 
+    protected override void Dispose(bool disposing)
+    {
+        if (disposing && _buffer.Length > 0)
+        {
+            ArrayPool<byte>.Shared.Return(_buffer);
+            _buffer = [];
+            _start = _ready = _end = _searched = 0;
+            _eof = true;
+        }
+
+        base.Dispose(disposing);
+    }
+
     public override void Write(byte[] buffer, int offset, int count) => throw new NotSupportedException();
 
     /// <summary>Reads more and checks every line completed; false when nothing more will be handed on.</summary>
@@ -149,7 +165,10 @@ internal sealed class ExportInputGuard(Stream inner) : Stream
 
         if (_buffer.Length - _end < Chunk)
         {
-            Array.Resize(ref _buffer, Math.Max(_buffer.Length * 2, _end + Chunk));
+            var larger = ArrayPool<byte>.Shared.Rent(Math.Max(_buffer.Length * 2, _end + Chunk));
+            Buffer.BlockCopy(_buffer, 0, larger, 0, _end);
+            ArrayPool<byte>.Shared.Return(_buffer);
+            _buffer = larger;
         }
 
         var n = inner.Read(_buffer, _end, Chunk);

@@ -73,16 +73,29 @@ public static class ExportReader
         // The first pass finds where each batch ends, so batches need not be contiguous to be streamed.
         Dictionary<string, long>? lastRows;
         using (var file = OpenFile(path))
-        using (var first = CsvReader.Create(new ExportInputGuard(file), ExportScanner.Options(static _ => { })))
+        using (var firstGuard = new ExportInputGuard(file))
+        using (var first = CsvReader.Create(firstGuard, ExportScanner.Options(static _ => { })))
         {
             lastRows = ExportScanner.FindLastRows(first);
         }
 
         using var second = OpenFile(path);
-        var guard = new ExportInputGuard(second);
-        var scanner = new ExportScanner(fileName, catalog, siteZone, onBatch, errors, lastRows, guard);
-        using var reader = CsvReader.Create(guard, ExportScanner.Options(scanner.OnMalformed));
-        return scanner.Run(reader);
+        return ScanOnce(second, fileName, catalog, siteZone, onBatch, errors, lastRows);
+    }
+
+    /// <summary>
+    /// Streaming read of an export already in memory (a small file read whole): one pass only. Every batch is
+    /// held to the end of the file, which costs no more than the bytes already held, and the batches are then
+    /// handed on in the order of their first row, as <see cref="Scan(string, string, ProcessCatalog, TimeZoneInfo, Action{BatchRecord})"/>
+    /// lists them; the errors are the same.
+    /// </summary>
+    public static ExportScanResult Scan(byte[] content, string fileName, ProcessCatalog catalog, TimeZoneInfo siteZone, Action<BatchRecord> onBatch)
+    {
+        ArgumentNullException.ThrowIfNull(content);
+        ArgumentNullException.ThrowIfNull(siteZone);
+        ArgumentNullException.ThrowIfNull(onBatch);
+        using var stream = new MemoryStream(content, writable: false);
+        return ScanOnce(stream, fileName, catalog, siteZone, onBatch, new ExportErrorList(fileName, MaxErrors), null);
     }
 
     /// <summary>Streaming read of a stream (left open); see <see cref="Scan(string, string, ProcessCatalog, TimeZoneInfo, Action{BatchRecord})"/>.
@@ -98,7 +111,8 @@ public static class ExportReader
         if (stream.CanSeek)
         {
             var start = stream.Position;
-            using (var first = CsvReader.Create(new ExportInputGuard(stream), ExportScanner.Options(static _ => { })))
+            using (var firstGuard = new ExportInputGuard(stream))
+            using (var first = CsvReader.Create(firstGuard, ExportScanner.Options(static _ => { })))
             {
                 lastRows = ExportScanner.FindLastRows(first);
             }
@@ -106,7 +120,15 @@ public static class ExportReader
             stream.Position = start;
         }
 
-        var guard = new ExportInputGuard(stream);
+        return ScanOnce(stream, fileName, catalog, siteZone, onBatch, errors, lastRows);
+    }
+
+    /// <summary>The reading pass: batches are handed on at their last row when <paramref name="lastRows"/> says where
+    /// it is, else all at the end of the file.</summary>
+    private static ExportScanResult ScanOnce(
+        Stream stream, string fileName, ProcessCatalog catalog, TimeZoneInfo siteZone, Action<BatchRecord> onBatch, ExportErrorList errors, Dictionary<string, long>? lastRows)
+    {
+        using var guard = new ExportInputGuard(stream);
         var scanner = new ExportScanner(fileName, catalog, siteZone, onBatch, errors, lastRows, guard);
         using var reader = CsvReader.Create(guard, ExportScanner.Options(scanner.OnMalformed));
         return scanner.Run(reader);
