@@ -48,4 +48,15 @@ public static class StoreFaults
         Describe(exception) is { } reason
             ? new StoreException($"{databasePath}: {reason} (SQLite: {exception.Message.Replace("SQLite Error ", string.Empty, StringComparison.Ordinal)})", exception) { Transient = true }
             : null;
+
+    /// <summary>
+    /// The one-line reason when <paramref name="exception"/> is a fault of the database (raw from SQLite or already
+    /// translated), or null for anything else. Callers that retry say this reason without a stack trace.
+    /// </summary>
+    public static string? ReasonOf(Exception exception) => exception switch
+    {
+        SqliteException s => Describe(s),
+        StoreException { Transient: true } s => s.Message,
+        _ => null,
+    };
 }

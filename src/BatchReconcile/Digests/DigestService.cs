@@ -28,6 +28,9 @@ public sealed class DigestService(
     /// <summary>After a failed pass (a full disk, a folder not writable) the next one waits this long, so the log is not flooded.</summary>
     public static readonly TimeSpan RetryAfterFailure = TimeSpan.FromMinutes(1);
 
+    /// <summary>After a pass refused by the database (locked, full, read-only) the next one waits this long.</summary>
+    public static readonly TimeSpan RetryAfterStoreFault = TimeSpan.FromSeconds(10);
+
     protected override async Task ExecuteAsync(CancellationToken stoppingToken)
     {
         while (!stoppingToken.IsCancellationRequested)
@@ -37,6 +40,13 @@ public sealed class DigestService(
             try
             {
                 Pass(now);
+            }
+            catch (Exception e) when (StoreFaults.ReasonOf(e) is { } reason)
+            {
+                // A fault of the database (a lock held past the busy timeout, a full disk): expected, said in one
+                // line without a stack trace, and tried again soon; the digests stay stale meanwhile, not lost.
+                logger.LogWarning("Writing a due or stale digest waits for the database: {Reason}; tried again in {Seconds} s", reason, RetryAfterStoreFault.TotalSeconds);
+                interval = RetryAfterStoreFault;
             }
             catch (Exception e) when (e is IOException or UnauthorizedAccessException or StoreException or Microsoft.Data.Sqlite.SqliteException)
             {

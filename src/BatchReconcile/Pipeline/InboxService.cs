@@ -78,7 +78,7 @@ public sealed class InboxService(
             }
             catch (Exception e) when (e is StoreException or SqliteException)
             {
-                var reason = e is SqliteException s ? StoreFaults.Describe(s) ?? s.Message : e.Message;
+                var reason = StoreFaults.ReasonOf(e) ?? e.Message;
                 backOff = backOff is { } last ? TimeSpan.FromTicks(Math.Min(last.Ticks * 2, MaxBackOff.Ticks)) : FirstBackOff;
                 if (failingSince is null)
                 {
