@@ -26,6 +26,16 @@ internal sealed class Options
         return options;
     }
 
+    /// <summary>Refuses any option not in <paramref name="known"/>, so that a mistyped or unsupported one does not start a 30-minute run.</summary>
+    public void OnlyKnown(params string[] known)
+    {
+        var unknown = _values.Keys.Where(name => !known.Contains(name, StringComparer.Ordinal)).Order(StringComparer.Ordinal).ToList();
+        if (unknown.Count > 0)
+        {
+            throw new ArgumentException($"unknown option(s): {string.Join(", ", unknown.Select(n => "--" + n))}; known: {string.Join(", ", known.Select(n => "--" + n))}");
+        }
+    }
+
     public bool Flag(string name) => _values.ContainsKey(name);
 
     public string? Text(string name) => _values.GetValueOrDefault(name);

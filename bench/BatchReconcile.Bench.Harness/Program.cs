@@ -6,7 +6,7 @@ using BatchReconcile.Bench.Harness.Measuring;
 
 // bench/run is the usual entry point; see bench/README.md.
 var repo = FindRepo();
-if (args.Length == 0 || args[0] is "-h" or "--help")
+if (args.Length == 0 || args.Any(a => a is "-h" or "--help"))
 {
     Console.Error.WriteLine("usage: harness generate --out DIR [--batches N] [--seed S] [--faults 0.05] [--rows-per-step R] [--max-rows-per-step M] [--per-day 50] [--first-day 2024-01-01] [--batches-per-file K] [--one-file-mb M]");
     Console.Error.WriteLine("       harness peer [--files 10000] [--runs 5]");
@@ -22,6 +22,7 @@ try
     {
         case "generate":
         {
+            options.OnlyKnown("out", "batches", "seed", "faults", "rows-per-step", "max-rows-per-step", "per-day", "first-day", "batches-per-file", "one-file-mb");
             var set = new BatchGenerator(new GeneratorOptions
             {
                 OutputFolder = Path.GetFullPath(options.Text("out") ?? throw new ArgumentException("--out DIR is required")),
@@ -42,6 +43,7 @@ try
 
         case "peer":
         {
+            options.OnlyKnown("files", "runs");
             // Only the small-file comparison of issue 12: publish, generate, then ingest, run, the peer script and the floor side by side.
             var work = Path.Combine(repo, "bench", "scratch");
             var baseOptions = new SuiteOptions { Repo = repo, Work = work, Kernels = false, SmallFilesOnly = true };
@@ -63,6 +65,7 @@ try
 
         case "measure":
         {
+            options.OnlyKnown("quick", "runs", "small", "large", "big-batches", "big-runs", "small-files", "latency-files", "rate", "no-kernels");
             var work = Path.Combine(repo, "bench", "scratch");
             var quick = options.Flag("quick");
             var baseOptions = quick ? SuiteOptions.ForQuick(repo, work) : new SuiteOptions { Repo = repo, Work = work };
@@ -100,6 +103,7 @@ try
         }
 
         case "soak":
+            options.OnlyKnown("kills", "files-per-round", "seed");
             return new KillSoak(repo, Path.Combine(repo, "bench", "scratch"), options.Int("kills", 100), options.Int("files-per-round", 40), options.Int("seed", 11)).Run();
 
         default:
