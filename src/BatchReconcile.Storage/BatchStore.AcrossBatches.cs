@@ -1,3 +1,4 @@
+using System.Data.Common;
 using System.Globalization;
 using BatchReconcile.Reconciliation.Outcomes;
 using BatchReconcile.Storage.Audit;
@@ -306,7 +307,7 @@ public sealed partial class BatchStore
     }
 
     // Filled for every row by the migration that added it and by every commit since; NULL would be a database edited by hand.
-    private static int ReadRecipeVersion(SqliteDataReader reader, int ordinal) =>
+    private static int ReadRecipeVersion(DbDataReader reader, int ordinal) =>
         reader.IsDBNull(ordinal) ? throw new InvalidDataException("A step result is stored without its recipe version.") : reader.GetInt32(ordinal);
 
     private static PreparedCommand SetDays(PreparedCommand query, DateOnly? from, DateOnly? to) =>

@@ -21,7 +21,7 @@ public sealed partial class BatchStore
         lock (_gate)
         {
             ThrowIfDisposed();
-            using var transaction = _connection.BeginTransaction(deferred: true);
+            using var transaction = BeginRead();
             var previousHash = AuditCanonicalForm.GenesisHash;
             long previousId = 0;
             long count = 0;
@@ -45,7 +45,7 @@ public sealed partial class BatchStore
                 }
             }
 
-            using (var sequence = new PreparedCommand(_connection, transaction, "SELECT seq FROM sqlite_sequence WHERE name = 'audit_event'"))
+            using (var sequence = new PreparedCommand(_connection, transaction, AuditWriter.HighWaterSql(_connection)))
             {
                 var last = sequence.Scalar() is { } seq ? Convert.ToInt64(seq, CultureInfo.InvariantCulture) : 0;
                 if (last > previousId)

@@ -1,3 +1,4 @@
+using System.Data.Common;
 using System.Globalization;
 using BatchReconcile.Records.Definitions;
 using BatchReconcile.Records.Exports;
@@ -45,7 +46,7 @@ public sealed partial class BatchStore
             ThrowIfDisposed();
             var now = _time.GetUtcNow();
             var results = new List<FileCommitResult>(files.Count);
-            using var transaction = _connection.BeginTransaction(deferred: false);
+            using var transaction = BeginWrite();
             using (var statements = new CommitStatements(_connection, transaction))
             {
                 foreach (var file in files)
@@ -58,7 +59,7 @@ public sealed partial class BatchStore
                     }
                     // A fault of the database itself (locked, full, read-only, I/O) is not the file's: it abandons the
                     // whole group (Guarded turns it into a transient StoreException) and every file stays in the inbox.
-                    catch (Exception failure) when (failure is SqliteException s ? StoreFaults.Describe(s) is null
+                    catch (Exception failure) when (failure is DbException s ? StoreFaults.Describe(s) is null
                         : failure is InvalidDataException or NotSupportedException or ArgumentException)
                     {
                         RollBackFile(statements, file, failure);
@@ -79,9 +80,9 @@ public sealed partial class BatchStore
             statements.RollBackFile();
             statements.EndFile.Execute();
         }
-        catch (SqliteException lost)
+        catch (DbException lost)
         {
-            // Some errors (disk full, I/O) make SQLite roll back the whole transaction; then the
+            // Some errors (disk full, I/O; on PostgreSQL a lost connection) abandon the whole transaction; then the
             // earlier files of the group are gone too and only the caller can retry them.
             throw new StoreException(
                 $"Storing {file.FileName} failed ({failure.Message}) and the database abandoned the whole group; nothing of it was stored.",

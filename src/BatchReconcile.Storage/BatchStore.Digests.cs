@@ -1,3 +1,4 @@
+using System.Data.Common;
 using System.Text.Json;
 using BatchReconcile.Storage.Audit;
 using BatchReconcile.Storage.Digests;
@@ -51,7 +52,7 @@ public sealed partial class BatchStore
         lock (_gate)
         {
             ThrowIfDisposed();
-            using var transaction = _connection.BeginTransaction(deferred: false);
+            using var transaction = BeginWrite();
             var earlier = ReadDigestWrites(transaction, day);
             if (earlier.Count > 0 && !rewrite)
             {
@@ -186,7 +187,7 @@ public sealed partial class BatchStore
         }
     }
 
-    private List<DigestWrite> ReadDigestWrites(SqliteTransaction? transaction, DateOnly day)
+    private List<DigestWrite> ReadDigestWrites(DbTransaction? transaction, DateOnly day)
     {
         using var query = new PreparedCommand(
             _connection, transaction, $"SELECT {DigestColumns} FROM digest WHERE day = $day ORDER BY id", ("$day", SqliteType.Text));
@@ -212,7 +213,7 @@ public sealed partial class BatchStore
         return writes;
     }
 
-    private DayChanges ReadDayChanges(SqliteTransaction? transaction, DateOnly day)
+    private DayChanges ReadDayChanges(DbTransaction? transaction, DateOnly day)
     {
         using var query = new PreparedCommand(
             _connection, transaction, $"SELECT {DayChangeColumns} FROM day_change WHERE day = $day", ("$day", SqliteType.Text));

@@ -1,3 +1,4 @@
+using System.Data.Common;
 using BatchReconcile.Reconciliation.Flags;
 using BatchReconcile.Reconciliation.Outcomes;
 using BatchReconcile.Records.Definitions;
@@ -231,7 +232,7 @@ public sealed partial class BatchStore
     }
 
     /// <summary>A review from the state column and the five columns outcome, note, deviation ref, by, at starting at <paramref name="first"/>.</summary>
-    private static FlagReview ReadReview(SqliteDataReader reader, int state, int first) => new(
+    private static FlagReview ReadReview(DbDataReader reader, int state, int first) => new(
         ReviewText.ParseStoredState(reader.GetString(state)),
         ReviewText.ParseStoredOutcome(reader.NullableString(first)),
         reader.NullableString(first + 1),
@@ -322,7 +323,7 @@ public sealed partial class BatchStore
     }
 
     /// <summary>A flag from a row selected with <see cref="StoreQueries.FlagColumns"/> first.</summary>
-    private static StoredFlag ReadFlag(SqliteDataReader reader)
+    private static StoredFlag ReadFlag(DbDataReader reader)
     {
         var flag = new Flag(
             ParseCode(reader.GetString(2)),
@@ -357,7 +358,7 @@ public sealed partial class BatchStore
     }
 
     /// <summary>A step from <see cref="StoreQueries.StepColumns"/> starting at column <paramref name="o"/>.</summary>
-    private static StoredStep ReadStep(SqliteDataReader r, int o, IReadOnlyList<StoredFlag> stepFlags)
+    private static StoredStep ReadStep(DbDataReader r, int o, IReadOnlyList<StoredFlag> stepFlags)
     {
         var outcome = new StepOutcome(
             Step: r.GetString(o),
@@ -402,7 +403,7 @@ public sealed partial class BatchStore
     }
 
     /// <summary>How the revision's recipe version was chosen; null when unknown (stored before it was recorded).</summary>
-    private static RecipeVersionSource? ReadVersionSource(SqliteDataReader reader, int ordinal) =>
+    private static RecipeVersionSource? ReadVersionSource(DbDataReader reader, int ordinal) =>
         reader.NullableString(ordinal) is not { } text ? null
         : RecipeVersionSources.TryParse(text, out var source) ? source
         : throw new InvalidDataException($"Unknown recipe version source '{text}' in the database.");

@@ -55,7 +55,7 @@ public sealed partial class BatchStore
             ThrowIfDisposed();
             // IMMEDIATE: the state read and the change it is checked against happen under the write
             // lock, so two reviewers cannot both move the flag from the same state.
-            using var transaction = _connection.BeginTransaction(deferred: false);
+            using var transaction = BeginWrite();
             FlagReview current;
             string batch, step, code;
             int revision;

@@ -1,3 +1,4 @@
+using System.Data.Common;
 using BatchReconcile.Records.Exports;
 using BatchReconcile.Storage.Ingest;
 using BatchReconcile.Storage.Schema;
@@ -7,17 +8,21 @@ using Microsoft.Data.Sqlite;
 namespace BatchReconcile.Storage;
 
 /// <summary>
-/// The SQLite store of batches, revisions, raw rows, step results, flags, the ingest log and the
-/// audit trail. One instance holds one connection; calls are serialised, so one instance may be
-/// shared by the threads of a process. Other processes (CLI commands while the service runs) open
-/// their own instance: the write-ahead log lets them read while the service writes.
+/// The store of batches, revisions, raw rows, step results, flags, the ingest log and the audit trail:
+/// an embedded SQLite file (the default) or one site's schema in a shared PostgreSQL database
+/// (<see cref="OpenPostgres"/>). One instance holds one connection; calls are serialised, so one instance
+/// may be shared by the threads of a process. Other processes (CLI commands while the service runs) open
+/// their own instance: SQLite's write-ahead log, or PostgreSQL's snapshots, let them read while the service writes.
 /// </summary>
+/// <remarks>The SQL is the same on both; what differs (opening, migrations, write locks, faults) is in
+/// <see cref="StoreConnectionFactory"/>, <see cref="SchemaMigrator"/> and <see cref="PostgresStore"/>.</remarks>
 public sealed partial class BatchStore : IDisposable
 {
     private readonly TimeProvider _time;
     private readonly StoreSettings _settings;
     private readonly Lock _gate = new();
-    private SqliteConnection _connection;
+    private readonly PostgresTarget? _postgres;
+    private DbConnection _connection;
     private PreparedCommand? _findFile;
     private bool _disposed;
 
@@ -25,18 +30,46 @@ public sealed partial class BatchStore : IDisposable
     // a file it may not write read-only, and keeps it so): the next operation opens the database afresh.
     private bool _reopen;
 
-    private BatchStore(SqliteConnection connection, StoreSettings settings, TimeProvider time)
+    private BatchStore(DbConnection connection, StoreSettings settings, TimeProvider time, PostgresTarget? postgres = null)
     {
         _connection = connection;
         _settings = settings;
         _time = time;
+        _postgres = postgres;
     }
 
-    /// <summary>The store's own connection, for tests that watch what it does (commit hooks, query plans).</summary>
-    internal SqliteConnection Connection => _connection;
+    /// <summary>The store's own connection, for tests that look into the tables or watch what it does (commit hooks, query plans).</summary>
+    internal DbConnection Connection => _connection;
 
-    /// <summary>The database file.</summary>
-    public string DatabasePath => _connection.DataSource;
+    /// <summary>The database file, or for PostgreSQL where the site's schema is (server, database, schema; never the password).</summary>
+    public string DatabasePath => _postgres?.Description ?? _connection.DataSource;
+
+    /// <summary>True when the store is a site's schema in PostgreSQL.</summary>
+    public bool IsPostgres => _postgres is not null;
+
+    /// <summary>
+    /// Opens the store the settings name: the SQLite file <paramref name="databasePath"/> when
+    /// <see cref="StoreSettings.Provider"/> is <see cref="StoreProvider.Sqlite"/>, else the schema of
+    /// <paramref name="siteCode"/> in the PostgreSQL database of <see cref="StoreSettings.ConnectionString"/>.
+    /// </summary>
+    public static BatchStore Open(StoreSettings settings, string databasePath, string siteCode, TimeProvider? time = null)
+    {
+        ArgumentNullException.ThrowIfNull(settings);
+        return settings.Provider == StoreProvider.Postgresql
+            ? OpenPostgres(settings.ConnectionString ?? string.Empty, siteCode, settings, time)
+            : Open(databasePath, settings, time);
+    }
+
+    /// <summary>Opens the schema of site <paramref name="siteCode"/> in a PostgreSQL database, creating and migrating it under an advisory lock.</summary>
+    /// <exception cref="StoreException">The server cannot be reached, refuses the login, or holds a newer schema.</exception>
+    public static BatchStore OpenPostgres(string connectionString, string siteCode, StoreSettings settings, TimeProvider? time = null)
+    {
+        ArgumentNullException.ThrowIfNull(settings);
+        var target = PostgresTarget.From(connectionString, siteCode, settings);
+        time ??= TimeProvider.System;
+        var connection = PostgresStore.OpenAndMigrate(target, time);
+        return new BatchStore(connection, settings, time, target);
+    }
 
     /// <summary>Opens the database (creating it when missing) and applies any migrations it lacks.</summary>
     /// <exception cref="StoreException">The database is newer than this program, or cannot use WAL.</exception>
@@ -76,7 +109,7 @@ public sealed partial class BatchStore : IDisposable
             ReopenIfNeeded();
             return operation();
         }
-        catch (SqliteException e) when (StoreFaults.Translate(e, DatabasePath) is { } fault)
+        catch (DbException e) when (StoreFaults.Translate(e, DatabasePath) is { } fault)
         {
             lock (_gate)
             {
@@ -97,7 +130,7 @@ public sealed partial class BatchStore : IDisposable
                 return;
             }
 
-            var fresh = StoreConnectionFactory.Open(_connection.DataSource, _settings);
+            DbConnection fresh = _postgres is { } target ? PostgresStore.Open(target) : StoreConnectionFactory.Open(_connection.DataSource, _settings);
             DropCachedStatements();
             _connection.Dispose();
             _connection = fresh;
@@ -198,4 +231,18 @@ public sealed partial class BatchStore : IDisposable
     }
 
     private void ThrowIfDisposed() => ObjectDisposedException.ThrowIf(_disposed, this);
+
+    /// <summary>
+    /// A transaction that writes: SQLite's BEGIN IMMEDIATE (the write lock first), or on PostgreSQL a
+    /// transaction holding the site's write lock (<see cref="PostgresStore.BeginWrite"/>): one writer per
+    /// site at a time, so the audit chain is extended by one instance at a time and never forks.
+    /// </summary>
+    private DbTransaction BeginWrite() => _connection is SqliteConnection sqlite
+        ? sqlite.BeginTransaction(deferred: false)
+        : PostgresStore.BeginWrite(_connection);
+
+    /// <summary>A transaction that only reads, on one consistent snapshot.</summary>
+    private DbTransaction BeginRead() => _connection is SqliteConnection sqlite
+        ? sqlite.BeginTransaction(deferred: true)
+        : PostgresStore.BeginRead(_connection);
 }

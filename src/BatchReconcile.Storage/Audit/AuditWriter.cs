@@ -1,3 +1,4 @@
+using System.Data.Common;
 using System.Globalization;
 using System.Text;
 using BatchReconcile.Storage.Sql;
@@ -23,11 +24,11 @@ internal sealed class AuditWriter : IDisposable
     private readonly PreparedCommand _insert;
     private (long Id, string Hash)? _appended;
 
-    public AuditWriter(SqliteConnection connection, SqliteTransaction transaction)
+    public AuditWriter(DbConnection connection, DbTransaction transaction)
     {
         const SqliteType T = SqliteType.Text, I = SqliteType.Integer;
         _last = new PreparedCommand(connection, transaction, "SELECT id, hash FROM audit_event ORDER BY id DESC LIMIT 1");
-        _sequence = new PreparedCommand(connection, transaction, "SELECT seq FROM sqlite_sequence WHERE name = 'audit_event'");
+        _sequence = new PreparedCommand(connection, transaction, HighWaterSql(connection));
         _insert = new PreparedCommand(
             connection,
             transaction,
@@ -35,6 +36,11 @@ internal sealed class AuditWriter : IDisposable
             ("$id", I), ("$at", T), ("$actor", T), ("$kind", T), ("$subject", T), ("$from", T), ("$to", T), ("$note", T),
             ("$deviation", T), ("$detail", T), ("$prev", T), ("$hash", T));
     }
+
+    /// <summary>The highest audit id ever given: SQLite's AUTOINCREMENT sequence, or PostgreSQL's <c>audit_high_water</c>.</summary>
+    public static string HighWaterSql(DbConnection connection) => connection is Microsoft.Data.Sqlite.SqliteConnection
+        ? "SELECT seq FROM sqlite_sequence WHERE name = 'audit_event'"
+        : "SELECT seq FROM audit_high_water";
 
     /// <returns>The new entry's id.</returns>
     public long Append(
@@ -84,7 +90,7 @@ internal sealed class AuditWriter : IDisposable
     }
 
     /// <summary>Reads an entry from a reader positioned on a row selected with <see cref="Columns"/>.</summary>
-    public static AuditEntry Read(SqliteDataReader reader) => new(
+    public static AuditEntry Read(DbDataReader reader) => new(
         reader.GetInt64(0),
         reader.GetString(1),
         reader.GetString(2),

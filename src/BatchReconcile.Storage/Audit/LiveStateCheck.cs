@@ -1,3 +1,4 @@
+using System.Data.Common;
 using System.Globalization;
 using BatchReconcile.Storage.Sql;
 using Microsoft.Data.Sqlite;
@@ -25,11 +26,11 @@ internal static class LiveStateCheck
     private const string StepsSql = """
         SELECT b.batch_id, r.revision, s.step, s.is_current
         FROM step_result s JOIN batch_revision r ON r.id = s.revision_ref JOIN batch b ON b.id = r.batch_ref
-        WHERE s.is_current <> (r.superseded_at IS NULL)
+        WHERE s.is_current <> CASE WHEN r.superseded_at IS NULL THEN 1 ELSE 0 END
         ORDER BY r.id, s.step_order
         """;
 
-    public static List<LiveStateDifference> Compare(SqliteConnection connection, SqliteTransaction transaction, TrailReplay replay)
+    public static List<LiveStateDifference> Compare(DbConnection connection, DbTransaction transaction, TrailReplay replay)
     {
         var differences = new List<LiveStateDifference>();
         CompareFlags(connection, transaction, replay, differences);
@@ -38,7 +39,7 @@ internal static class LiveStateCheck
         return differences;
     }
 
-    private static void CompareFlags(SqliteConnection connection, SqliteTransaction transaction, TrailReplay replay, List<LiveStateDifference> differences)
+    private static void CompareFlags(DbConnection connection, DbTransaction transaction, TrailReplay replay, List<LiveStateDifference> differences)
     {
         var seen = new HashSet<long>();
         using (var query = new PreparedCommand(connection, transaction, FlagsSql))
@@ -81,7 +82,7 @@ internal static class LiveStateCheck
         }
     }
 
-    private static void CompareBatches(SqliteConnection connection, SqliteTransaction transaction, TrailReplay replay, List<LiveStateDifference> differences)
+    private static void CompareBatches(DbConnection connection, DbTransaction transaction, TrailReplay replay, List<LiveStateDifference> differences)
     {
         var seen = new HashSet<string>(StringComparer.Ordinal);
         using (var query = new PreparedCommand(connection, transaction, BatchesSql))
@@ -115,7 +116,7 @@ internal static class LiveStateCheck
         }
     }
 
-    private static void CompareSteps(SqliteConnection connection, SqliteTransaction transaction, List<LiveStateDifference> differences)
+    private static void CompareSteps(DbConnection connection, DbTransaction transaction, List<LiveStateDifference> differences)
     {
         using var query = new PreparedCommand(connection, transaction, StepsSql);
         using var reader = query.Read();

@@ -1,3 +1,4 @@
+using System.Data.Common;
 using BatchReconcile.Storage.Audit;
 using Microsoft.Data.Sqlite;
 
@@ -20,7 +21,7 @@ internal sealed class CommitStatements : IDisposable
 
     private readonly List<PreparedCommand> _all = [];
 
-    public CommitStatements(SqliteConnection connection, SqliteTransaction transaction)
+    public CommitStatements(DbConnection connection, DbTransaction transaction)
     {
         PreparedCommand Make(string sql, params (string, SqliteType)[] parameters)
         {

@@ -1,3 +1,4 @@
+using System.Data.Common;
 using System.Globalization;
 using Microsoft.Data.Sqlite;
 
@@ -22,12 +23,12 @@ internal static class DbText
 
     public static DateOnly ParseDay(string text) => DateOnly.ParseExact(text, DayFormat, CultureInfo.InvariantCulture);
 
-    public static string? NullableString(this SqliteDataReader reader, int ordinal) =>
+    public static string? NullableString(this DbDataReader reader, int ordinal) =>
         reader.IsDBNull(ordinal) ? null : reader.GetString(ordinal);
 
-    public static double? NullableDouble(this SqliteDataReader reader, int ordinal) =>
+    public static double? NullableDouble(this DbDataReader reader, int ordinal) =>
         reader.IsDBNull(ordinal) ? null : reader.GetDouble(ordinal);
 
-    public static DateTimeOffset? NullableTime(this SqliteDataReader reader, int ordinal) =>
+    public static DateTimeOffset? NullableTime(this DbDataReader reader, int ordinal) =>
         reader.IsDBNull(ordinal) ? null : ParseTime(reader.GetString(ordinal));
 }

@@ -1,5 +1,8 @@
+using System.Data.Common;
 using System.Globalization;
 using Microsoft.Data.Sqlite;
+using Npgsql;
+using NpgsqlTypes;
 using SQLitePCL;
 
 namespace BatchReconcile.Storage.Sql;
@@ -17,11 +20,14 @@ namespace BatchReconcile.Storage.Sql;
 /// <para>Both run the same SQL on the same connection, inside whatever transaction is open on it, with the
 /// same values; errors are the same <see cref="SqliteException"/>s. The direct statement is always reset
 /// after use, so it holds no lock between executions.</para>
+/// <para>On PostgreSQL the same SQL runs through Npgsql (<see cref="PostgresSql.Parameters"/> turns the
+/// <c>$name</c> parameters into Npgsql's <c>@name</c>); Npgsql prepares a statement on the server once it
+/// has been used twice on a connection (<c>Max Auto Prepare</c>, set by <see cref="PostgresStore"/>).</para>
 /// </remarks>
 internal sealed class PreparedCommand : IDisposable
 {
-    private readonly SqliteConnection _connection;
-    private readonly SqliteCommand _command;
+    private readonly SqliteConnection? _sqlite;
+    private readonly DbCommand _command;
     private readonly string[] _names;
     private readonly SqliteType[] _types;
     private readonly object?[] _values;
@@ -29,12 +35,13 @@ internal sealed class PreparedCommand : IDisposable
     private sqlite3_stmt? _statement;
     private int[]? _indexes;
 
-    public PreparedCommand(SqliteConnection connection, SqliteTransaction? transaction, string sql, params (string Name, SqliteType Type)[] parameters)
+    public PreparedCommand(DbConnection connection, DbTransaction? transaction, string sql, params (string Name, SqliteType Type)[] parameters)
     {
-        _connection = connection;
+        ArgumentNullException.ThrowIfNull(connection);
+        _sqlite = connection as SqliteConnection;
         _command = connection.CreateCommand();
         _command.Transaction = transaction;
-        _command.CommandText = sql;
+        _command.CommandText = _sqlite is null ? PostgresSql.Parameters(sql) : sql;
         _names = new string[parameters.Length];
         _types = new SqliteType[parameters.Length];
         _values = new object?[parameters.Length];
@@ -43,7 +50,14 @@ internal sealed class PreparedCommand : IDisposable
         {
             (_names[i], _types[i]) = parameters[i];
             _positions.Add(_names[i], i);
-            _command.Parameters.Add(_names[i], _types[i]);
+            if (_command is SqliteCommand sqliteCommand)
+            {
+                sqliteCommand.Parameters.Add(_names[i], _types[i]);
+            }
+            else
+            {
+                _command.Parameters.Add(new NpgsqlParameter(_names[i].TrimStart('$'), PostgresType(_types[i])));
+            }
         }
     }
 
@@ -55,6 +69,12 @@ internal sealed class PreparedCommand : IDisposable
 
     public int Execute()
     {
+        if (_sqlite is null)
+        {
+            BindCommand();
+            return _command.ExecuteNonQuery();
+        }
+
         var statement = Bound();
         try
         {
@@ -64,7 +84,7 @@ internal sealed class PreparedCommand : IDisposable
             }
 
             Check(rc);
-            return raw.sqlite3_changes(_connection.Handle);
+            return raw.sqlite3_changes(_sqlite.Handle);
         }
         finally
         {
@@ -80,6 +100,23 @@ internal sealed class PreparedCommand : IDisposable
     public T? ReadFirst<T>(Func<StatementRow, T> map)
     {
         ArgumentNullException.ThrowIfNull(map);
+        if (_sqlite is null)
+        {
+            BindCommand();
+            using var reader = _command.ExecuteReader();
+            if (!reader.Read())
+            {
+                return default;
+            }
+
+            var first = map(new StatementRow(reader));
+            while (reader.Read())
+            {
+            }
+
+            return first;
+        }
+
         var statement = Bound();
         try
         {
@@ -104,16 +141,43 @@ internal sealed class PreparedCommand : IDisposable
         }
     }
 
-    /// <summary>A reader over the rows, through Microsoft.Data.Sqlite (dispose it before the next execution).</summary>
-    public SqliteDataReader Read()
+    /// <summary>A reader over the rows, through the provider's ADO.NET command (dispose it before the next execution).</summary>
+    public DbDataReader Read()
+    {
+        BindCommand();
+        var reader = _command.ExecuteReader();
+        return _sqlite is null ? new LenientReader(reader) : reader;
+    }
+
+    private void BindCommand()
     {
         for (var i = 0; i < _names.Length; i++)
         {
-            _command.Parameters[i].Value = _values[i] ?? DBNull.Value;
+            _command.Parameters[i].Value = _sqlite is null ? PostgresValue(_values[i], _types[i]) : _values[i] ?? DBNull.Value;
         }
-
-        return _command.ExecuteReader();
     }
+
+    private static NpgsqlDbType PostgresType(SqliteType type) => type switch
+    {
+        SqliteType.Integer => NpgsqlDbType.Bigint,
+        SqliteType.Real => NpgsqlDbType.Double,
+        SqliteType.Blob => NpgsqlDbType.Bytea,
+        _ => NpgsqlDbType.Text,
+    };
+
+    /// <summary>The value as the PostgreSQL schema stores it: whole numbers and flags (0/1) as bigint, as SQLite has them.</summary>
+    private static object PostgresValue(object? value, SqliteType type) => value switch
+    {
+        null or DBNull => DBNull.Value,
+        bool flag => flag ? 1L : 0L,
+        int number when type != SqliteType.Real => (long)number,
+        int number => (double)number,
+        long number when type == SqliteType.Real => (double)number,
+        double real when double.IsNaN(real) => throw new InvalidOperationException("NaN cannot be stored."),
+        double real when type == SqliteType.Integer => checked((long)real),
+        string or long or double or byte[] => value,
+        _ => throw new NotSupportedException($"A value of type {value.GetType().Name} cannot be bound to a statement."),
+    };
 
     public void Dispose()
     {
@@ -125,7 +189,7 @@ internal sealed class PreparedCommand : IDisposable
     {
         if (_statement is null)
         {
-            Check(raw.sqlite3_prepare_v2(_connection.Handle, _command.CommandText, out var statement));
+            Check(raw.sqlite3_prepare_v2(_sqlite!.Handle, _command.CommandText, out var statement));
             _statement = statement;
             _indexes = new int[_names.Length];
             for (var i = 0; i < _names.Length; i++)
@@ -163,30 +227,38 @@ internal sealed class PreparedCommand : IDisposable
     {
         if (rc != raw.SQLITE_OK && rc != raw.SQLITE_DONE && rc != raw.SQLITE_ROW)
         {
-            SqliteException.ThrowExceptionForRC(rc, _connection.Handle);
+            SqliteException.ThrowExceptionForRC(rc, _sqlite!.Handle);
         }
     }
 }
 
 /// <summary>The current row of a statement stepped by <see cref="PreparedCommand.ReadFirst"/>.</summary>
+/// <remarks>On PostgreSQL it reads the command's data reader instead.</remarks>
 internal readonly struct StatementRow
 {
-    private readonly sqlite3_stmt _statement;
+    private readonly sqlite3_stmt? _statement;
+    private readonly DbDataReader? _reader;
 
     internal StatementRow(sqlite3_stmt statement) => _statement = statement;
 
-    public bool IsNull(int column) => raw.sqlite3_column_type(_statement, column) == raw.SQLITE_NULL;
+    internal StatementRow(DbDataReader reader) => _reader = reader;
 
-    public long GetInt64(int column) => raw.sqlite3_column_int64(_statement, column);
+    public bool IsNull(int column) => _reader?.IsDBNull(column) ?? raw.sqlite3_column_type(_statement, column) == raw.SQLITE_NULL;
 
-    public int GetInt32(int column) => checked((int)raw.sqlite3_column_int64(_statement, column));
+    public long GetInt64(int column) => _reader is null ? raw.sqlite3_column_int64(_statement, column) : IsNull(column) ? 0 : Convert.ToInt64(_reader.GetValue(column), CultureInfo.InvariantCulture);
 
-    public string GetString(int column) => raw.sqlite3_column_text(_statement, column).utf8_to_string() ?? string.Empty;
+    public int GetInt32(int column) => checked((int)GetInt64(column));
+
+    public string GetString(int column) => _reader is null
+        ? raw.sqlite3_column_text(_statement, column).utf8_to_string() ?? string.Empty
+        : IsNull(column) ? string.Empty : _reader.GetString(column);
 
     public string? NullableString(int column) => IsNull(column) ? null : GetString(column);
 
     /// <summary>The value as Microsoft.Data.Sqlite's ExecuteScalar gives it: long, double, string, byte[] or null.</summary>
-    public object? Value(int column) => raw.sqlite3_column_type(_statement, column) switch
+    public object? Value(int column) => _reader is not null
+        ? (IsNull(column) ? null : _reader.GetValue(column))
+        : raw.sqlite3_column_type(_statement, column) switch
     {
         raw.SQLITE_INTEGER => raw.sqlite3_column_int64(_statement, column),
         raw.SQLITE_FLOAT => raw.sqlite3_column_double(_statement, column),

@@ -1,3 +1,4 @@
+using System.Data.Common;
 using BatchReconcile.Reconciliation.Flags;
 using System.Security.Cryptography;
 using System.Text;
@@ -10,10 +11,11 @@ namespace BatchReconcile.Storage.Tests.Audit;
 
 public sealed class AuditChainTests
 {
-    [Fact]
-    public void Ingest_revisions_reviews_and_digests_form_one_chain_that_verifies()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void Ingest_revisions_reviews_and_digests_form_one_chain_that_verifies(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = Filled(db);
 
         var verification = store.VerifyAudit();
@@ -105,10 +107,11 @@ public sealed class AuditChainTests
         Assert.Equal(Db.Count(reopened.Connection, "audit_event", $"id < {expected}"), verification.EntriesChecked);
     }
 
-    [Fact]
-    public void Rehashing_a_changed_entry_breaks_the_link_of_the_next_one()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void Rehashing_a_changed_entry_breaks_the_link_of_the_next_one(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         AuditEntry third;
         using (var store = Filled(db))
         {
@@ -117,7 +120,7 @@ public sealed class AuditChainTests
 
         // The attacker recomputes entry 3's own hash after the change, so entry 3 verifies; entry 4 still points to the old hash.
         var forged = AuditCanonicalForm.Hash(third with { Note = "x" });
-        Sqlite3Shell.Run(db.DatabasePath, $"DROP TRIGGER audit_event_no_update; UPDATE audit_event SET note = 'x', hash = '{forged}' WHERE id = 3;");
+        Db.Tamper(db, $"DROP TRIGGER audit_event_no_update; UPDATE audit_event SET note = 'x', hash = '{forged}' WHERE id = 3;");
 
         using var reopened = db.Open();
         var verification = reopened.VerifyAudit();
@@ -125,19 +128,20 @@ public sealed class AuditChainTests
         Assert.Contains($"it holds {third.Hash} where entry 3's hash {forged} was expected", verification.Message, StringComparison.Ordinal);
     }
 
-    [Fact]
-    public void The_database_refuses_updates_deletes_and_unlinked_entries()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void The_database_refuses_updates_deletes_and_unlinked_entries(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = Filled(db);
 
         foreach (var sql in new[] { "UPDATE audit_event SET note = 'x' WHERE id = 2", "DELETE FROM audit_event WHERE id = 2" })
         {
-            var refused = Assert.Throws<SqliteException>(() => Db.Execute(store.Connection, sql));
+            var refused = Assert.ThrowsAny<DbException>(() => Db.Execute(store.Connection, sql));
             Assert.Contains("append-only", refused.Message, StringComparison.Ordinal);
         }
 
-        var unlinked = Assert.Throws<SqliteException>(() => Db.Execute(store.Connection, $"""
+        var unlinked = Assert.ThrowsAny<DbException>(() => Db.Execute(store.Connection, $"""
             INSERT INTO audit_event (at, actor, kind, subject, detail, prev_hash, hash)
             VALUES ('2026-11-24T09:00:00.0000000Z', 'x', 'flag.review', 'flag:1', '{"{}"}', '{new string('0', 64)}', '{new string('1', 64)}')
             """));
@@ -145,10 +149,11 @@ public sealed class AuditChainTests
         Assert.True(store.VerifyAudit().Intact);
     }
 
-    [Fact]
-    public void An_empty_trail_verifies()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void An_empty_trail_verifies(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
 
         var verification = store.VerifyAudit();

@@ -36,7 +36,7 @@ public sealed class LiveStateReplayTests
             flag = store.ListFlags().Single(f => f.BatchId == "BZ-002").Id.ToString(System.Globalization.CultureInfo.InvariantCulture);
         }
 
-        Sqlite3Shell.Run(db.DatabasePath, "PRAGMA busy_timeout = 5000; " + DropFlagTriggers + tamper.Replace("{flag}", flag, StringComparison.Ordinal));
+        Db.Tamper(db, DropFlagTriggers + tamper.Replace("{flag}", flag, StringComparison.Ordinal));
 
         using var reopened = db.Open();
         var verification = reopened.VerifyAudit();
@@ -54,17 +54,18 @@ public sealed class LiveStateReplayTests
         }
     }
 
-    [Fact]
-    public void A_superseded_revision_made_current_again_is_named_with_both_revisions()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void A_superseded_revision_made_current_again_is_named_with_both_revisions(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using (var store = AuditChainTests.Filled(db))
         {
             Assert.True(store.VerifyAudit().Intact);
         }
 
         // Roll BZ-001 back to revision 1 (the unique index allows one current revision, so revision 2 goes first).
-        Sqlite3Shell.Run(db.DatabasePath, """
+        Db.Tamper(db, """
             UPDATE batch_revision SET superseded_at = '2026-11-24T08:00:05.0000000Z'
              WHERE revision = 2 AND batch_ref = (SELECT id FROM batch WHERE batch_id = 'BZ-001');
             UPDATE batch_revision SET superseded_at = NULL, superseded_by = NULL
@@ -82,16 +83,17 @@ public sealed class LiveStateReplayTests
         Assert.Contains(verification.Differences, d => d.Field.StartsWith("step S1 of revision 1", StringComparison.Ordinal));
     }
 
-    [Fact]
-    public void A_batch_the_trail_never_recorded_is_named()
+    [Theory]
+    [InlineData(StoreProvider.Sqlite)] // SQLite only: its tampering SQL is SQLite's (printf).
+    public void A_batch_the_trail_never_recorded_is_named(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using (var store = AuditChainTests.Filled(db))
         {
             Assert.True(store.VerifyAudit().Intact);
         }
 
-        Sqlite3Shell.Run(db.DatabasePath, """
+        Db.Tamper(db, """
             INSERT INTO batch (batch_id, first_seen_at) VALUES ('BZ-999', '2026-11-24T08:00:05.0000000Z');
             INSERT INTO batch_revision (batch_ref, revision, ingest_ref, recipe, recipe_version, content_sha256, production_day, stored_at)
             SELECT id, 1, 1, 'BZ-100', 1, printf('%064d', 0), '2026-11-23', '2026-11-24T08:00:05.0000000Z' FROM batch WHERE batch_id = 'BZ-999';
@@ -103,10 +105,11 @@ public sealed class LiveStateReplayTests
             (difference.Subject, difference.Field, difference.Live, difference.Trail, difference.EntryId));
     }
 
-    [Fact]
-    public void Reviews_revisions_and_system_closings_made_by_the_program_replay_to_the_live_tables()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void Reviews_revisions_and_system_closings_made_by_the_program_replay_to_the_live_tables(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = AuditChainTests.Filled(db);
 
         var verification = store.VerifyAudit();

@@ -9,10 +9,11 @@ public sealed class DigestFreshnessTests
 {
     private static readonly string[] Files = ["digests/digest-2026-11-23.html"];
 
-    [Fact]
-    public void A_batch_stored_for_a_day_after_its_digest_makes_the_day_stale_until_a_digest_covers_it()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void A_batch_stored_for_a_day_after_its_digest_makes_the_day_stale_until_a_digest_covers_it(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         var clock = new FixedTime(new DateTimeOffset(2026, 11, 24, 6, 30, 0, TimeSpan.Zero));
         using var store = db.Open(time: clock);
         store.Commit([Build.File("a.csv", Build.Ingest(Build.Batch("B-1"), Build.Day1, Build.Flag("S1")))]);
@@ -44,10 +45,11 @@ public sealed class DigestFreshnessTests
         Assert.True(store.VerifyAudit().Intact);
     }
 
-    [Fact]
-    public void A_review_decision_on_a_flag_of_the_day_makes_it_stale_a_decision_on_a_day_without_digest_does_not()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void A_review_decision_on_a_flag_of_the_day_makes_it_stale_a_decision_on_a_day_without_digest_does_not(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         var day1 = store.Commit([Build.File("a.csv", Build.Ingest(Build.Batch("B-1"), Build.Day1, Build.Flag("S1")))]).Single().Batches.Single().FlagIds.Single();
         var day2 = store.Commit([Build.File("b.csv", Build.Ingest(Build.Batch("B-2"), Build.Day2, Build.Flag("S1")))]).Single().Batches.Single().FlagIds.Single();
@@ -61,10 +63,11 @@ public sealed class DigestFreshnessTests
         Assert.Equal(new DayChanges(1, 0, 0, 1), store.DayChangesOf(Build.Day1));
     }
 
-    [Fact]
-    public void A_re_export_counts_once_as_a_revision_and_a_batch_moved_to_another_day_is_counted_on_the_day_it_left()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void A_re_export_counts_once_as_a_revision_and_a_batch_moved_to_another_day_is_counted_on_the_day_it_left(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         store.Commit([Build.File("a.csv", Build.Ingest(Build.Batch("B-1"), Build.Day1, Build.Flag("S1")))]);
         store.RecordDigest(Build.Day1, Files, 1, rewrite: false, "system");
@@ -80,10 +83,11 @@ public sealed class DigestFreshnessTests
         Assert.Equal([Build.Day1], store.StaleDigestDays());
     }
 
-    [Fact]
-    public void A_write_that_another_process_got_to_first_is_refused_and_its_files_are_not_written()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void A_write_that_another_process_got_to_first_is_refused_and_its_files_are_not_written(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         store.RecordDigest(Build.Day1, Files, 0, rewrite: false, "system");
         var wrote = false;

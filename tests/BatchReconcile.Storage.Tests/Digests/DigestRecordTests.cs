@@ -1,13 +1,15 @@
+using System.Data.Common;
 using BatchReconcile.Storage.Tests.Support;
 
 namespace BatchReconcile.Storage.Tests.Digests;
 
 public sealed class DigestRecordTests
 {
-    [Fact]
-    public void A_day_is_written_once_rewrites_are_recorded_and_each_write_is_in_the_trail()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void A_day_is_written_once_rewrites_are_recorded_and_each_write_is_in_the_trail(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         var clock = new FixedTime(new DateTimeOffset(2026, 11, 24, 6, 30, 0, TimeSpan.Zero));
         using var store = db.Open(time: clock);
         string[] files = ["digests/2026-11-23/digest.html", "digests/2026-11-23/digest.md", "digests/2026-11-23/exceptions.csv"];
@@ -39,10 +41,11 @@ public sealed class DigestRecordTests
         Assert.True(store.VerifyAudit().Intact);
     }
 
-    [Fact]
-    public void A_rewrite_asked_for_a_day_without_a_digest_is_its_first_write()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void A_rewrite_asked_for_a_day_without_a_digest_is_its_first_write(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
 
         var result = store.RecordDigest(Build.Day2, ["digests/2026-11-24/digest.html"], 0, rewrite: true, "B. Okafor");
@@ -51,21 +54,23 @@ public sealed class DigestRecordTests
         Assert.Equal("digest.written", Assert.Single(store.AuditTrailOf("digest:2026-11-24")).Kind);
     }
 
-    [Fact]
-    public void The_database_refuses_a_second_first_write_of_a_day()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void The_database_refuses_a_second_first_write_of_a_day(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         store.RecordDigest(Build.Day1, ["a.html"], 0, rewrite: false, "system");
 
-        Assert.Throws<Microsoft.Data.Sqlite.SqliteException>(() => Db.Execute(store.Connection,
+        Assert.ThrowsAny<DbException>(() => Db.Execute(store.Connection,
             "INSERT INTO digest (day, written_at, written_by, is_rewrite, files, flag_count) VALUES ('2026-11-23', '2026-11-24T09:00:00.0000000Z', 'x', 0, '[]', 0)"));
     }
 
-    [Fact]
-    public void Digest_days_are_listed_in_order_and_within_a_range()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void Digest_days_are_listed_in_order_and_within_a_range(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         foreach (var day in new[] { 20, 23, 21, 23 })
         {

@@ -8,10 +8,11 @@ namespace BatchReconcile.Storage.Tests.Ingest;
 
 public sealed class CommitTests
 {
-    [Fact]
-    public void A_file_stores_its_batches_raw_rows_every_step_figure_and_flags()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void A_file_stores_its_batches_raw_rows_every_step_figure_and_flags(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         var first = Build.Ingest(Build.Batch("BZ-001"), Build.Day1, Build.Flag("S1"), Build.Flag("S2", FlagCode.EquivalentsOutOfRange, FlagSeverity.Minor, 1.42, 1.2, "equiv", "H2"));
         var nullSteps = new BatchOutcome(
@@ -55,10 +56,11 @@ public sealed class CommitTests
         Assert.Equal(3, result.Batches.SelectMany(b => b.FlagIds).Distinct().Count());
     }
 
-    [Fact]
-    public void A_file_with_the_same_sha256_is_a_duplicate_and_stores_nothing_more()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void A_file_with_the_same_sha256_is_a_duplicate_and_stores_nothing_more(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         store.Commit([Build.File("a.csv", Build.Ingest(Build.Batch("BZ-001"), Build.Day1, Build.Flag("S1")))]);
 
@@ -78,10 +80,11 @@ public sealed class CommitTests
         Assert.Equal(IngestOutcome.Stored, store.FindFile(Build.Sha("a.csv"))?.Outcome);
     }
 
-    [Fact]
-    public void A_changed_batch_becomes_revision_two_and_revision_one_is_kept_superseded_with_its_flags()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void A_changed_batch_becomes_revision_two_and_revision_one_is_kept_superseded_with_its_flags(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         var first = Assert.Single(store.Commit([Build.File("a.csv", Build.Ingest(Build.Batch("BZ-001"), Build.Day1, Build.Flag("S1")))]));
         var oldFlagId = first.Batches.Single().FlagIds.Single();
@@ -118,10 +121,11 @@ public sealed class CommitTests
         Assert.Contains("\"supersededRevision\":1", Db.Scalar(store.Connection, "SELECT detail FROM audit_event WHERE kind = 'batch.revision'"), StringComparison.Ordinal);
     }
 
-    [Fact]
-    public void The_same_batch_content_in_a_different_file_is_not_a_new_revision()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void The_same_batch_content_in_a_different_file_is_not_a_new_revision(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         store.Commit([Build.File("a.csv", Build.Ingest(Build.Batch("BZ-001"), Build.Day1, Build.Flag("S1")))]);
 
@@ -146,10 +150,11 @@ public sealed class CommitTests
         Assert.True(store.IsKnown(Build.Sha("c.csv")));
     }
 
-    [Fact]
-    public void A_quarantined_file_stores_only_its_ingest_log_entry_and_a_resend_is_a_duplicate()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void A_quarantined_file_stores_only_its_ingest_log_entry_and_a_resend_is_a_duplicate(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         var result = Assert.Single(store.Commit([Build.Quarantined("bad.csv", errors: 3)]));
 
@@ -168,10 +173,11 @@ public sealed class CommitTests
         Assert.Equal((IngestOutcome.Quarantined, 3), (store.FindFile(Build.Sha("bad.csv"))?.Outcome, store.FindFile(Build.Sha("bad.csv"))?.ErrorCount));
     }
 
-    [Fact]
-    public void What_was_committed_is_on_disk_for_another_connection_and_after_reopening()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void What_was_committed_is_on_disk_for_another_connection_and_after_reopening(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using (var store = db.Open())
         {
             store.Commit([Build.File("a.csv", Build.Ingest(Build.Batch("BZ-001"), Build.Day1, Build.Flag("S1")))]);

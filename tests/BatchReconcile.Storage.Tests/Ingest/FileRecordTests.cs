@@ -8,10 +8,11 @@ namespace BatchReconcile.Storage.Tests.Ingest;
 /// <summary>What is kept about a file as a whole: its flags read back for the log, and its audit entry.</summary>
 public sealed class FileRecordTests
 {
-    [Fact]
-    public void A_files_flags_are_read_back_in_stored_order_with_their_batch_even_once_superseded()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void A_files_flags_are_read_back_in_stored_order_with_their_batch_even_once_superseded(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         var first = Assert.Single(store.Commit([Build.File(
             "a.csv",

@@ -7,10 +7,11 @@ namespace BatchReconcile.Storage.Tests.Ingest;
 /// <summary>Files whose batches are produced while they are stored (<see cref="FileIngest.Streamed"/>).</summary>
 public sealed class StreamedFileTests
 {
-    [Fact]
-    public void Batches_handed_over_are_stored_and_listed_in_the_order_of_their_first_row()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void Batches_handed_over_are_stored_and_listed_in_the_order_of_their_first_row(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         var calls = 0;
 
@@ -85,10 +86,11 @@ public sealed class StreamedFileTests
         Assert.True(store.VerifyAudit().Intact);
     }
 
-    [Fact]
-    public void A_batch_handed_over_twice_fails_only_its_file()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void A_batch_handed_over_twice_fails_only_its_file(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         var twice = FileIngest.Streamed("twice.csv", Build.Sha("twice.csv"), Build.ReceivedAt, storeBatch =>
         {
@@ -105,10 +107,11 @@ public sealed class StreamedFileTests
         Assert.Equal(["BZ-002"], store.ListBatches().Select(b => b.BatchId));
     }
 
-    [Fact]
-    public void A_known_file_is_a_duplicate_and_its_producer_is_never_called()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void A_known_file_is_a_duplicate_and_its_producer_is_never_called(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         store.Commit([Build.File("same.csv", Build.Ingest(Build.Batch("BZ-001"), Build.Day1))]);
         var again = FileIngest.Streamed("same.csv", Build.Sha("same.csv"), Build.ReceivedAt, _ => throw new InvalidOperationException("read although known"));

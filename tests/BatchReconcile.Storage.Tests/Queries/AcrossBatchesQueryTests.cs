@@ -43,10 +43,11 @@ public sealed class AcrossBatchesQueryTests
         return store;
     }
 
-    [Fact]
-    public void Step_series_is_in_production_order_of_current_revisions_with_days_and_version_filters()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void Step_series_is_in_production_order_of_current_revisions_with_days_and_version_filters(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = Filled(db);
 
         var all = store.StepSeries(Build.Recipe, "S1", StepMeasure.Yield);
@@ -99,10 +100,11 @@ public sealed class AcrossBatchesQueryTests
     [InlineData("mass")]
     public void Text_that_is_no_measure_is_refused(string text) => Assert.False(StepMeasure.TryParse(text, out _));
 
-    [Fact]
-    public void Steps_of_a_recipe_come_per_batch_in_production_then_step_order_with_route_yield_and_flags()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void Steps_of_a_recipe_come_per_batch_in_production_then_step_order_with_route_yield_and_flags(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = Filled(db);
 
         var rows = store.StepsOfRecipe(Build.Recipe);
@@ -126,10 +128,11 @@ public sealed class AcrossBatchesQueryTests
         Assert.Empty(store.StepsOfRecipe("NO-SUCH"));
     }
 
-    [Fact]
-    public void Figures_only_leaves_the_json_held_figures_out_and_the_rest_alike()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void Figures_only_leaves_the_json_held_figures_out_and_the_rest_alike(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = Filled(db);
 
         var all = store.StepsOfRecipe(Build.Recipe);
@@ -145,10 +148,11 @@ public sealed class AcrossBatchesQueryTests
         Assert.All(store.StepsOfRecipe(Build.Recipe, parts: StepParts.Ladder), r => Assert.Equal(2, r.Outcome.Ladder.Count));
     }
 
-    [Fact]
-    public void Batches_list_filters_by_days_recipe_and_open_flags_in_production_order()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void Batches_list_filters_by_days_recipe_and_open_flags_in_production_order(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = Filled(db);
 
         var all = store.ListBatches(BatchFilter.All);
@@ -166,10 +170,11 @@ public sealed class AcrossBatchesQueryTests
         Assert.Equal(["B-10"], store.ListBatches(new BatchFilter(FlaggedOnly: true)).Select(b => b.BatchId));
     }
 
-    [Fact]
-    public void A_flag_comes_with_its_step_limits_revision_and_review_history()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void A_flag_comes_with_its_step_limits_revision_and_review_history(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = Filled(db);
         var old = store.ListFlags(includeSuperseded: true).Single(f => f.BatchId == "B-10" && f.Revision == 1).Id;
         var current = store.ListFlags().Single(f => f.BatchId == "B-10").Id;
@@ -191,10 +196,11 @@ public sealed class AcrossBatchesQueryTests
         Assert.Null(store.GetFlag(9999));
     }
 
-    [Fact]
-    public void Audit_entries_filter_by_time_and_kind_or_family_of_kinds()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void Audit_entries_filter_by_time_and_kind_or_family_of_kinds(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         var clock = new FixedTime(new DateTimeOffset(2026, 11, 24, 8, 0, 0, TimeSpan.Zero));
         using var store = db.Open(time: clock);
         store.Commit([Build.File("a.csv", Build.Ingest(Build.Batch("AU-1"), Build.Day1, Build.Flag("S1")))]);

@@ -14,10 +14,11 @@ public sealed class DigestQueryTests
     private static readonly DateOnly Nov21 = new(2026, 11, 21);
     private static readonly DateOnly Nov22 = new(2026, 11, 22);
 
-    [Fact]
-    public void Unresolved_flags_of_earlier_days_leave_out_closed_superseded_and_the_day_itself()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void Unresolved_flags_of_earlier_days_leave_out_closed_superseded_and_the_day_itself(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         store.Commit(
         [
@@ -44,10 +45,11 @@ public sealed class DigestQueryTests
         Assert.Empty(store.UnresolvedFlagsBefore(Nov20));
     }
 
-    [Fact]
-    public void Flagged_steps_of_a_day_carry_their_figures_ladder_and_flags_with_review()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void Flagged_steps_of_a_day_carry_their_figures_ladder_and_flags_with_review(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         store.Commit(
         [
@@ -76,10 +78,11 @@ public sealed class DigestQueryTests
         Assert.Empty(store.FlaggedStepsOfDay(Nov20));
     }
 
-    [Fact]
-    public void Counts_of_a_day_include_the_steps_reconciled_and_recipe_steps_of_the_day_are_listed()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void Counts_of_a_day_include_the_steps_reconciled_and_recipe_steps_of_the_day_are_listed(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         var noRowsForS2 = new BatchOutcome(Build.Batch("BZ-002"), [Build.Step("S1", 10.0, []), Build.Step("S2", 20.0, [], nulls: true)], null);
         store.Commit(
@@ -94,10 +97,11 @@ public sealed class DigestQueryTests
         Assert.Empty(store.RecipeStepsOfDay(Nov20));
     }
 
-    [Fact]
-    public void Step_history_up_to_a_day_takes_the_last_n_batches_of_that_day_and_before()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void Step_history_up_to_a_day_takes_the_last_n_batches_of_that_day_and_before(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         for (var day = 1; day <= 8; day++)
         {
@@ -112,10 +116,11 @@ public sealed class DigestQueryTests
         Assert.Equal("BZ-008", store.StepHistory(Build.Recipe, "S1", 3)[^1].BatchId);
     }
 
-    [Fact]
-    public void The_flag_list_carries_the_review_and_the_recipe()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void The_flag_list_carries_the_review_and_the_recipe(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         var clock = new FixedTime(new DateTimeOffset(2026, 11, 26, 9, 12, 0, TimeSpan.Zero));
         using var store = db.Open(time: clock);
         store.Commit([Build.File("a.csv", Build.Ingest(Build.Batch("BZ-001"), Nov21, Build.Flag("S1"), Build.Flag("S2")))]);

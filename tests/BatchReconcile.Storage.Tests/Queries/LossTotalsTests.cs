@@ -69,10 +69,11 @@ public sealed class LossTotalsTests
         Assert.Equal(totals.Rungs.OrderBy(r => r.StepOrder).Select(r => r.Step), totals.Rungs.Select(r => r.Step));
     }
 
-    [Fact]
-    public void A_period_without_batches_gives_zero_totals_and_no_rungs()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void A_period_without_batches_gives_zero_totals_and_no_rungs(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = Filled(db);
 
         var totals = store.LossTotalsOfRecipe(Build.Recipe, new DateOnly(2027, 1, 1), new DateOnly(2027, 12, 31));

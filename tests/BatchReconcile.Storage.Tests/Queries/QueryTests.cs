@@ -7,10 +7,11 @@ namespace BatchReconcile.Storage.Tests.Queries;
 
 public sealed class QueryTests
 {
-    [Fact]
-    public void Flags_of_one_day_come_most_severe_first_and_only_from_current_revisions()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void Flags_of_one_day_come_most_severe_first_and_only_from_current_revisions(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         store.Commit(
         [
@@ -38,10 +39,11 @@ public sealed class QueryTests
         Assert.Single(store.ListFlags(Build.Day2));
     }
 
-    [Fact]
-    public void Step_history_gives_the_last_n_current_results_oldest_first()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void Step_history_gives_the_last_n_current_results_oldest_first(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         for (var day = 1; day <= 6; day++)
         {
@@ -61,10 +63,11 @@ public sealed class QueryTests
         Assert.Empty(store.StepHistory("OTHER-1", "S1", 3));
     }
 
-    [Fact]
-    public void Counts_of_a_day_and_the_batch_list_cover_current_revisions()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void Counts_of_a_day_and_the_batch_list_cover_current_revisions(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         store.Commit(
         [
@@ -83,10 +86,11 @@ public sealed class QueryTests
         Assert.Equal(["BZ-003"], store.ListBatches(Build.Day2).Select(b => b.BatchId));
     }
 
-    [Fact]
-    public void An_unknown_batch_or_revision_is_null()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void An_unknown_batch_or_revision_is_null(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         store.Commit([Build.File("a.csv", Build.Ingest(Build.Batch("BZ-001"), Build.Day1))]);
 

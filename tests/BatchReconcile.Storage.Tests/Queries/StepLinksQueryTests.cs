@@ -20,10 +20,11 @@ public sealed class StepLinksQueryTests
         Assert.DoesNotContain(plan, line => line.Contains("TEMP B-TREE", StringComparison.Ordinal));
     }
 
-    [Fact]
-    public void Every_current_batch_of_the_recipe_in_the_period_has_its_links()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void Every_current_batch_of_the_recipe_in_the_period_has_its_links(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = Filled(db);
 
         var all = store.StepLinksOfRecipe(Build.Recipe);

@@ -100,10 +100,11 @@ public sealed class ReviewTests
     public void Only_the_reserved_name_and_its_look_alikes_are_reserved(string name, bool reserved) =>
         Assert.Equal(reserved, ReviewRules.IsReservedName(name, "system"));
 
-    [Fact]
-    public void An_unknown_flag_id_is_refused()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void An_unknown_flag_id_is_refused(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         OneFlag(store);
 
@@ -112,10 +113,11 @@ public sealed class ReviewTests
         Assert.Equal((ReviewRefusal.UnknownFlag, "flag 999 does not exist"), (result.Refusal, result.Reason));
     }
 
-    [Fact]
-    public void A_deviation_keeps_its_reference_reopening_clears_the_outcome_and_every_change_is_in_the_trail()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void A_deviation_keeps_its_reference_reopening_clears_the_outcome_and_every_change_is_in_the_trail(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         var clock = new FixedTime(new DateTimeOffset(2026, 11, 25, 9, 12, 0, TimeSpan.Zero));
         using var store = db.Open(time: clock);
         var flag = OneFlag(store);
@@ -145,10 +147,11 @@ public sealed class ReviewTests
         Assert.True(store.VerifyAudit().Intact);
     }
 
-    [Fact]
-    public void A_new_revision_closes_the_unclosed_flags_of_the_old_one_as_superseded_in_the_trail()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void A_new_revision_closes_the_unclosed_flags_of_the_old_one_as_superseded_in_the_trail(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         var first = Assert.Single(store.Commit([Build.File("a.csv", Build.Ingest(Build.Batch("BZ-001"), Build.Day1,
             Build.Flag("S1"), Build.Flag("S2", FlagCode.BalanceGap), Build.Flag("S2", FlagCode.ProductInWaste, FlagSeverity.Minor)))]));
@@ -181,10 +184,11 @@ public sealed class ReviewTests
         Assert.True(store.VerifyAudit().Intact);
     }
 
-    [Fact]
-    public void When_the_revision_file_fails_its_superseded_closings_are_rolled_back_with_it()
+    [Theory]
+    [MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]
+    public void When_the_revision_file_fails_its_superseded_closings_are_rolled_back_with_it(StoreProvider provider)
     {
-        using var db = new TempDatabase();
+        using var db = new TempDatabase(provider);
         using var store = db.Open();
         var flag = Assert.Single(store.Commit([Build.File("a.csv", Build.Ingest(Build.Batch("BZ-001"), Build.Day1, Build.Flag("S1")))])).Batches[0].FlagIds[0];
         var auditBefore = Db.Count(store.Connection, "audit_event");

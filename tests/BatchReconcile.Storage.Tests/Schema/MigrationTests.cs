@@ -34,7 +34,7 @@ public sealed class MigrationTests
         using var db = new TempDatabase();
         using (var store = db.Open())
         {
-            Assert.Equal(Migrations.Latest, SchemaMigrator.CurrentVersion(store.Connection));
+            Assert.Equal(Migrations.Latest, SchemaMigrator.CurrentVersion((Microsoft.Data.Sqlite.SqliteConnection)store.Connection));
             foreach (var table in Tables)
             {
                 Assert.Equal("1", Db.Scalar(store.Connection, $"SELECT count(*) FROM sqlite_master WHERE type = 'table' AND name = '{table}'"));
@@ -62,7 +62,7 @@ public sealed class MigrationTests
         }
 
         using var store = db.Open();
-        Assert.Equal(Migrations.Latest, SchemaMigrator.CurrentVersion(store.Connection));
+        Assert.Equal(Migrations.Latest, SchemaMigrator.CurrentVersion((Microsoft.Data.Sqlite.SqliteConnection)store.Connection));
 
         var batch = store.GetLatestBatch("OLD-001");
         Assert.NotNull(batch);
