@@ -102,6 +102,13 @@ public sealed partial class BatchStore
     private static FileCommitResult CommitFile(CommitStatements sql, FileIngest file, DateTimeOffset now, Action rollBackFile)
     {
         var known = ReadKnownFile(sql.FindFile.Set("$sha256", file.Sha256));
+        if (known is not null && string.Equals(known.FileName, file.FileName, StringComparison.Ordinal) && known.ProcessedAt > file.ReceivedAt)
+        {
+            // Stored after this instance had picked the file up, under its name: another instance on the same inbox
+            // took it first (the site's write lock made this commit wait for that one). Nothing is recorded twice.
+            return new FileCommitResult(file.FileName, file.Sha256, null, null, [], 0, null) { TakenBy = known };
+        }
+
         if (known is not null)
         {
             // A streamed file known by its hash (its twin came earlier in the same group) is never read,

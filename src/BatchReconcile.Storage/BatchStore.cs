@@ -44,6 +44,9 @@ public sealed partial class BatchStore : IDisposable
     /// <summary>The database file, or for PostgreSQL where the site's schema is (server, database, schema; never the password).</summary>
     public string DatabasePath => _postgres?.Description ?? _connection.DataSource;
 
+    /// <summary>True when a site code can name a site (and its PostgreSQL schema).</summary>
+    public static bool IsValidSiteCode(string? code) => PostgresTarget.IsValidSiteCode(code);
+
     /// <summary>True when the store is a site's schema in PostgreSQL.</summary>
     public bool IsPostgres => _postgres is not null;
 
@@ -230,7 +233,21 @@ public sealed partial class BatchStore : IDisposable
         return (plan, stored.BatchRef, stored.RevisionRef);
     }
 
-    private void ThrowIfDisposed() => ObjectDisposedException.ThrowIf(_disposed, this);
+    /// <remarks>Called by every operation under the gate. A PostgreSQL connection that broke (the server restarted,
+    /// the network dropped) is opened afresh here, so the next try after a fault works once the server answers;
+    /// while it does not, this throws the transient <see cref="StoreException"/> of <see cref="PostgresStore.Open"/>.</remarks>
+    private void ThrowIfDisposed()
+    {
+        ObjectDisposedException.ThrowIf(_disposed, this);
+        if (_postgres is { } target && _connection.State != System.Data.ConnectionState.Open)
+        {
+            var fresh = PostgresStore.Open(target);
+            DropCachedStatements();
+            _connection.Dispose();
+            _connection = fresh;
+            _reopen = false;
+        }
+    }
 
     /// <summary>
     /// A transaction that writes: SQLite's BEGIN IMMEDIATE (the write lock first), or on PostgreSQL a

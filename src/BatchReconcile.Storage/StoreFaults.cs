@@ -25,7 +25,7 @@ public static class StoreFaults
     {
         SqliteException s => Describe(s),
         PostgresException p => DescribePostgres(p.SqlState),
-        NpgsqlException => "the PostgreSQL server cannot be reached or closed the connection; it is tried again when it answers",
+        NpgsqlException => "the PostgreSQL server cannot be reached or closed the connection",
         _ => null,
     };
 
@@ -46,8 +46,8 @@ public static class StoreFaults
             "40001" or "40P01" => "PostgreSQL ended the transaction for a conflict with another instance (serialization failure or deadlock); it is tried again",
             "55P03" or "57014" => "a PostgreSQL lock or statement waited longer than the time-out; it is tried again",
             "XX001" or "XX002" => "the PostgreSQL server reports damaged data; ask its administrator (restore from a backup)",
-            _ when sqlState.StartsWith("08", StringComparison.Ordinal) => "the connection to the PostgreSQL server failed; it is tried again when it answers",
-            _ when sqlState.StartsWith("57P", StringComparison.Ordinal) => "the PostgreSQL server is shutting down, restarting or not yet accepting connections; it is tried again",
+            _ when sqlState.StartsWith("08", StringComparison.Ordinal) => "the connection to the PostgreSQL server failed",
+            _ when sqlState.StartsWith("57P", StringComparison.Ordinal) => "the PostgreSQL server is shutting down, restarting or not yet accepting connections",
             _ when sqlState.StartsWith("53", StringComparison.Ordinal) => "the PostgreSQL server is out of resources (memory, connections or disk)",
             _ => null,
         };

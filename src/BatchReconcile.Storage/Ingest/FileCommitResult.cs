@@ -24,4 +24,11 @@ public sealed record FileCommitResult(
 
     /// <summary>The quarantine report that goes with <see cref="Errors"/>, when there is one.</summary>
     public string? Report { get; init; }
+
+    /// <summary>
+    /// Set when another instance on the same store and inbox stored this very file (same name, same bytes) after
+    /// this one had picked it up: nothing was recorded for it here, not even a duplicate sighting, and the file is
+    /// left to the instance that stored it (which archives it).
+    /// </summary>
+    public KnownFile? TakenBy { get; init; }
 }

@@ -48,7 +48,7 @@ public sealed class DigestService(
                 logger.LogWarning("Writing a due or stale digest waits for the database: {Reason}; tried again in {Seconds} s", reason, RetryAfterStoreFault.TotalSeconds);
                 interval = RetryAfterStoreFault;
             }
-            catch (Exception e) when (e is IOException or UnauthorizedAccessException or StoreException or Microsoft.Data.Sqlite.SqliteException)
+            catch (Exception e) when (e is IOException or UnauthorizedAccessException or StoreException or System.Data.Common.DbException)
             {
                 logger.LogError(e, "Writing a due or stale digest failed; it is tried again in {Minutes} minute(s) or at the next due time", RetryAfterFailure.TotalMinutes);
                 interval = RetryAfterFailure;

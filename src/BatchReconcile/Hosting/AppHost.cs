@@ -47,6 +47,8 @@ public static class AppHost
             ContentRootPath = context.ConfigDirectory,
         });
         builder.Configuration.AddJsonFile(settingsFile, optional: false, reloadOnChange: false);
+        // The generic host's convention (Storage__ConnectionString), then the program's own prefix, which wins.
+        builder.Configuration.AddEnvironmentVariables();
         builder.Configuration.AddEnvironmentVariables("BATCHRECONCILE_");
 
         var site = builder.Configuration.GetSection(SiteOptions.Section).Get<SiteOptions>() ?? new SiteOptions();
@@ -75,8 +77,9 @@ public static class AppHost
         });
         builder.Services.AddSingleton(sp => new CatalogSource(context.ProcessesDirectory, sp.GetRequiredService<ILogger<CatalogSource>>()));
         builder.Services.AddSingleton(sp => BatchStore.Open(
-            sp.GetRequiredService<DataFolders>().Database,
             sp.GetRequiredService<IOptions<StoreSettings>>().Value,
+            sp.GetRequiredService<DataFolders>().Database,
+            sp.GetRequiredService<IOptions<SiteOptions>>().Value.Code,
             sp.GetRequiredService<TimeProvider>()));
         builder.Services.AddSingleton(sp =>
         {

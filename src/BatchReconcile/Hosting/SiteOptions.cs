@@ -11,6 +11,12 @@ public sealed class SiteOptions : IValidatableObject
     [Required]
     public string Name { get; set; } = string.Empty;
 
+    /// <summary>
+    /// Short code of the site (a letter, then letters, digits, '-' or '_'; e.g. KB3). In a shared PostgreSQL store
+    /// every batch, file, flag, digest and audit entry belongs to the site of this code (its schema <c>site_kb3</c>).
+    /// </summary>
+    public string Code { get; set; } = "main";
+
     /// <summary>IANA time-zone id of the plant, e.g. Europe/Berlin.</summary>
     [Required]
     public string TimeZone { get; set; } = "UTC";
@@ -55,6 +61,11 @@ public sealed class SiteOptions : IValidatableObject
 
     public IEnumerable<ValidationResult> Validate(ValidationContext validationContext)
     {
+        if (!BatchReconcile.Storage.BatchStore.IsValidSiteCode(Code))
+        {
+            yield return new ValidationResult($"Site:Code '{Code}' must be a letter followed by up to 39 letters, digits, '-' or '_' (e.g. KB3)", [nameof(Code)]);
+        }
+
         if (!TimeZoneInfo.TryFindSystemTimeZoneById(TimeZone, out _))
         {
             yield return new ValidationResult($"Site:TimeZone '{TimeZone}' is not a known IANA time zone (e.g. Europe/Berlin)", [nameof(TimeZone)]);

@@ -76,7 +76,7 @@ public sealed class InboxService(
                     (backOff, failingSince) = (null, null);
                 }
             }
-            catch (Exception e) when (e is StoreException or SqliteException)
+            catch (Exception e) when (e is StoreException or System.Data.Common.DbException)
             {
                 var reason = StoreFaults.ReasonOf(e) ?? e.Message;
                 backOff = backOff is { } last ? TimeSpan.FromTicks(Math.Min(last.Ticks * 2, MaxBackOff.Ticks)) : FirstBackOff;

@@ -254,6 +254,13 @@ public sealed class IngestPipeline(
             return null;
         }
 
+        if (result.TakenBy is { } taken)
+        {
+            // Two instances on one inbox and one store: the other one stored it and moves it.
+            logger.LogInformation("{File} ({Sha256}) was stored by another instance at {At:O} while this one read it; left to that instance", file.Name, result.Sha256, taken.ProcessedAt);
+            return null;
+        }
+
         if (!result.Committed)
         {
             // A storage failure of this file alone (its savepoint was rolled back): nothing of it is
