@@ -11,7 +11,10 @@ public static class ProgramRunner
     // The demo ingests a week of exports and writes a digest; on a busy two-core machine that can take a while.
     private static readonly TimeSpan Timeout = TimeSpan.FromSeconds(180);
 
-    public static async Task<ProgramResult> RunAsync(params string[] args)
+    public static Task<ProgramResult> RunAsync(params string[] args) => RunWithAsync(null, args);
+
+    /// <summary>Runs the program with variables added to its environment (e.g. <c>Storage__Provider</c>).</summary>
+    public static async Task<ProgramResult> RunWithAsync(IReadOnlyDictionary<string, string>? environment, params string[] args)
     {
         var start = new ProcessStartInfo("dotnet")
         {
@@ -22,6 +25,11 @@ public static class ProgramRunner
             StandardOutputEncoding = System.Text.Encoding.UTF8,
             StandardErrorEncoding = System.Text.Encoding.UTF8,
         };
+        foreach (var (name, value) in environment ?? new Dictionary<string, string>())
+        {
+            start.Environment[name] = value;
+        }
+
         start.ArgumentList.Add(RepoPaths.ProgramDll);
         foreach (var arg in args)
         {

@@ -55,7 +55,8 @@ public sealed class ServiceProcess : IDisposable
     /// </summary>
     /// <param name="waitUntilWatching">False to return at once (a test that must react to the first
     /// file the service takes cannot afford to be busy reading the log meanwhile).</param>
-    public static async Task<ServiceProcess> StartAsync(string configFolder, string dataFolder, bool waitUntilWatching = true)
+    /// <param name="environment">Variables added to the process's environment (e.g. <c>Storage__Provider</c>).</param>
+    public static async Task<ServiceProcess> StartAsync(string configFolder, string dataFolder, bool waitUntilWatching = true, IReadOnlyDictionary<string, string>? environment = null)
     {
         var start = new ProcessStartInfo("dotnet")
         {
@@ -66,6 +67,11 @@ public sealed class ServiceProcess : IDisposable
             StandardOutputEncoding = Encoding.UTF8,
             StandardErrorEncoding = Encoding.UTF8,
         };
+        foreach (var (name, value) in environment ?? new Dictionary<string, string>())
+        {
+            start.Environment[name] = value;
+        }
+
         // `dotnet app.dll` runs the app inside this very process, so the pid is the one to signal.
         foreach (var arg in new[] { RepoPaths.ProgramDll, "run", "--config", configFolder, "--data", dataFolder })
         {

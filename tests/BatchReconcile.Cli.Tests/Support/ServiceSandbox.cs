@@ -31,9 +31,12 @@ public sealed class ServiceSandbox : IDisposable
     /// <summary>A folder beside the data (same file system) where files are prepared before they are moved into the inbox.</summary>
     public string Stage { get; }
 
+    /// <summary>Variables every process of the sandbox gets (the store's provider and connection, the site code).</summary>
+    public Dictionary<string, string> Environment { get; } = [];
+
     public async Task<ServiceProcess> StartAsync(bool waitUntilWatching = true)
     {
-        var service = await ServiceProcess.StartAsync(Config, Data.Path, waitUntilWatching);
+        var service = await ServiceProcess.StartAsync(Config, Data.Path, waitUntilWatching, Environment);
         _services.Add(service);
         return service;
     }
@@ -88,6 +91,29 @@ public sealed class ServiceSandbox : IDisposable
     /// <summary>The ingest log, oldest first: (file name, outcome).</summary>
     public IReadOnlyList<(string File, string Outcome)> IngestLog() =>
         Data.Rows("SELECT file_name, outcome FROM ingest_log ORDER BY id").Select(r => (r[0], r[1])).ToList();
+
+    /// <summary>The ingest log entries of one file name, read through <c>audit list</c>-free SQL on the store the sandbox's environment names.</summary>
+    public IReadOnlyList<(string File, string Outcome)> IngestLogOf(string fileName)
+    {
+        if (!Environment.TryGetValue("Storage__Provider", out var provider) || provider != "postgresql")
+        {
+            return IngestLog().Where(e => e.File == fileName).ToList();
+        }
+
+        var builder = new Npgsql.NpgsqlConnectionStringBuilder(Environment["Storage__ConnectionString"]) { SearchPath = "site_" + Environment["Site__Code"].ToLowerInvariant(), Pooling = false };
+        using var connection = new Npgsql.NpgsqlConnection(builder.ConnectionString);
+        connection.Open();
+        using var command = new Npgsql.NpgsqlCommand("SELECT file_name, outcome FROM ingest_log WHERE file_name = @name ORDER BY id", connection);
+        command.Parameters.AddWithValue("name", fileName);
+        using var reader = command.ExecuteReader();
+        var rows = new List<(string, string)>();
+        while (reader.Read())
+        {
+            rows.Add((reader.GetString(0), reader.GetString(1)));
+        }
+
+        return rows;
+    }
 
     public void Dispose()
     {
