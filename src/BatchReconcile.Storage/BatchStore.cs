@@ -44,6 +44,22 @@ public sealed partial class BatchStore : IDisposable
     /// <summary>The database file, or for PostgreSQL where the site's schema is (server, database, schema; never the password).</summary>
     public string DatabasePath => _postgres?.Description ?? _connection.DataSource;
 
+    /// <summary>The sites a PostgreSQL database holds (each with its schema), by code.</summary>
+    /// <exception cref="StoreException">The server cannot be reached or refuses the login.</exception>
+    public static IReadOnlyList<string> PostgresSites(StoreSettings settings)
+    {
+        ArgumentNullException.ThrowIfNull(settings);
+        var target = PostgresTarget.From(settings.ConnectionString ?? string.Empty, "any", settings);
+        try
+        {
+            return PostgresStore.Sites(target.ConnectionString);
+        }
+        catch (DbException e) when (StoreFaults.Describe(e) is { } reason)
+        {
+            throw new StoreException($"{target.Description}: {reason}", e) { Transient = true };
+        }
+    }
+
     /// <summary>True when a site code can name a site (and its PostgreSQL schema).</summary>
     public static bool IsValidSiteCode(string? code) => PostgresTarget.IsValidSiteCode(code);
 

@@ -94,6 +94,11 @@ internal static class PostgresStore
             // The schema may exist (made by an administrator who granted it to the service) without tables.
             Execute(connection, transaction, $"CREATE SCHEMA IF NOT EXISTS {target.Schema}");
             Execute(connection, transaction, $"CREATE TABLE IF NOT EXISTS {target.Schema}.schema_version (version integer PRIMARY KEY, description text NOT NULL, applied_at text NOT NULL)");
+            // The site's code as settings give it (the schema name is folded to lower case).
+            Execute(connection, transaction, $"CREATE TABLE IF NOT EXISTS {target.Schema}.site_info (code text NOT NULL)");
+            using var site = new NpgsqlCommand($"INSERT INTO {target.Schema}.site_info (code) VALUES (@code)", connection, transaction);
+            site.Parameters.AddWithValue("code", target.SiteCode);
+            site.ExecuteNonQuery();
         }
 
         var at = time.GetUtcNow().UtcDateTime.ToString("yyyy-MM-dd'T'HH:mm:ss.fff'Z'", CultureInfo.InvariantCulture);
@@ -109,6 +114,35 @@ internal static class PostgresStore
         }
 
         transaction.Commit();
+    }
+
+    /// <summary>The codes of the sites whose schemas the database holds (<c>--site all</c>), in order.</summary>
+    public static IReadOnlyList<string> Sites(string connectionString)
+    {
+        using var connection = new NpgsqlConnection(connectionString);
+        connection.Open();
+        var schemas = new List<string>();
+        using (var find = new NpgsqlCommand(
+            @"SELECT nspname FROM pg_namespace WHERE nspname LIKE 'site\_%' AND to_regclass(quote_ident(nspname) || '.site_info') IS NOT NULL ORDER BY nspname", connection))
+        using (var reader = find.ExecuteReader())
+        {
+            while (reader.Read())
+            {
+                schemas.Add(reader.GetString(0));
+            }
+        }
+
+        var codes = new List<string>();
+        foreach (var schema in schemas)
+        {
+            using var read = new NpgsqlCommand($"SELECT code FROM {schema}.site_info LIMIT 1", connection);
+            if (read.ExecuteScalar() is string code)
+            {
+                codes.Add(code);
+            }
+        }
+
+        return codes;
     }
 
     private static void RefuseNewer(PostgresTarget target, int version)

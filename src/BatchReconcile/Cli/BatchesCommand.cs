@@ -56,15 +56,29 @@ public static class BatchesCommand
         history.AddTo(list);
         list.SetAction(parse => HostedCommand.Run(parse, globals, service: false, host =>
         {
-            var store = host.Services.GetRequiredService<BatchStore>();
             var (from, to) = history.Days(parse);
-            var recipe = history.KnownRecipe(parse, store);
-            var batches = store.ListBatches(new BatchFilter(from, to, recipe, parse.GetValue(flagged)));
+            var sites = HostedCommand.Sites(host);
+            var across = sites.Count > 1 || parse.GetValue(globals.Site) is Hosting.AppContextOptions.AllSites;
+            var recipe = sites.Count == 1 ? history.KnownRecipe(parse, sites[0].Store) : parse.GetValue(history.Recipe)?.Trim();
+            var batches = new List<BatchSummary>();
+            var siteOf = new List<string>();
+            foreach (var (site, store, owned) in sites)
+            {
+                var found = store.ListBatches(new BatchFilter(from, to, recipe, parse.GetValue(flagged)));
+                batches.AddRange(found);
+                siteOf.AddRange(found.Select(_ => site));
+                if (owned)
+                {
+                    store.Dispose();
+                }
+            }
+
             if (parse.GetValue(json))
             {
-                JsonOutput.Write(stdout, batches.Select(b => new BatchListJson(
+                JsonOutput.Write(stdout, batches.Select((b, i) => new BatchListJson(
                     b.BatchId, b.Revision, b.Recipe, b.RecipeVersion, b.ProductionDay.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture),
-                    b.StepCount, BatchJson.RoundPct(b.RouteYieldPct), b.RouteYieldPct is null ? b.RouteNote : null, b.FlagCount, b.OpenFlagCount)).ToList());
+                    b.StepCount, BatchJson.RoundPct(b.RouteYieldPct), b.RouteYieldPct is null ? b.RouteNote : null, b.FlagCount, b.OpenFlagCount)
+                    { Site = across ? siteOf[i] : null }).ToList());
                 return ExitCodes.Success;
             }
 
@@ -76,9 +90,9 @@ public static class BatchesCommand
 
             TextTable.Write(
                 stdout,
-                ["day", "batch", "rev", "recipe", "steps", "route yield", "open flags"],
-                [false, false, true, false, true, false, true],
-                batches.Select(b => new[]
+                across ? ["site", "day", "batch", "rev", "recipe", "steps", "route yield", "open flags"] : ["day", "batch", "rev", "recipe", "steps", "route yield", "open flags"],
+                across ? [false, false, false, true, false, true, false, true] : [false, false, true, false, true, false, true],
+                batches.Select((b, i) => (across ? new[] { SafeText.Escape(siteOf[i]) } : []).Concat(new[]
                 {
                     b.ProductionDay.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture),
                     SafeText.Escape(b.BatchId),
@@ -87,14 +101,19 @@ public static class BatchesCommand
                     b.StepCount.ToString(CultureInfo.InvariantCulture),
                     b.RouteYieldPct is { } y ? y.ToString("F2", CultureInfo.InvariantCulture) + " %" : "not computable: " + SafeText.Escape(b.RouteNote ?? "no reason stored"),
                     string.Create(CultureInfo.InvariantCulture, $"{b.OpenFlagCount} of {b.FlagCount}"),
-                }).ToList());
+                }).ToArray()).ToList());
             stdout.WriteLine(string.Create(CultureInfo.InvariantCulture, $"{batches.Count} batch{(batches.Count == 1 ? "" : "es")}"));
             return ExitCodes.Success;
-        }, storeOnly: true));
+        }, storeOnly: true, acrossSites: true));
         return list;
     }
 
     /// <summary>One line of <c>batches list --json</c>; <c>routeYieldNote</c> says why <c>routeYieldPct</c> is null.</summary>
+    /// <remarks><c>site</c> only with <c>--site all</c>.</remarks>
     private sealed record BatchListJson(
-        string Batch, int Revision, string Recipe, int RecipeVersion, string Day, int Steps, double? RouteYieldPct, string? RouteYieldNote, int Flags, int OpenFlags);
+        string Batch, int Revision, string Recipe, int RecipeVersion, string Day, int Steps, double? RouteYieldPct, string? RouteYieldNote, int Flags, int OpenFlags)
+    {
+        [System.Text.Json.Serialization.JsonIgnore(Condition = System.Text.Json.Serialization.JsonIgnoreCondition.WhenWritingNull)]
+        public string? Site { get; init; }
+    }
 }

@@ -17,9 +17,16 @@ public sealed class GlobalOptions
         Recursive = true,
     };
 
+    public Option<string?> Site { get; } = new("--site")
+    {
+        Description = "The site whose records to read or write (default: Site:Code of the settings); 'all' reads across the sites of a shared store (batches list)",
+        Recursive = true,
+    };
+
     public void AddTo(RootCommand root)
     {
         root.Options.Add(Config);
         root.Options.Add(Data);
+        root.Options.Add(Site);
     }
 }

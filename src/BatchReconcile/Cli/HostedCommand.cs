@@ -6,6 +6,7 @@ using BatchReconcile.Hosting;
 using BatchReconcile.Pipeline;
 using BatchReconcile.Records;
 using BatchReconcile.Storage;
+using Microsoft.Extensions.DependencyInjection;
 using Microsoft.Extensions.Hosting;
 using Microsoft.Extensions.Options;
 
@@ -19,11 +20,47 @@ public static partial class HostedCommand
 {
     /// <param name="storeOnly">A command that works on the store alone (lists, shows, reviews, verifies) does not load
     /// the process definitions: they play no part in its answer, and loading them was a quarter of its start-up time.</param>
-    public static int Run(ParseResult parse, GlobalOptions globals, bool service, Func<IHost, int> body, bool storeOnly = false)
+    /// <param name="acrossSites">The command reads every site with <c>--site all</c> (through <see cref="Sites"/>); any other
+    /// command refuses it, since it works on one site's records.</param>
+    public static int Run(ParseResult parse, GlobalOptions globals, bool service, Func<IHost, int> body, bool storeOnly = false, bool acrossSites = false)
     {
-        var context = AppContextOptions.From(parse.GetValue(globals.Config), parse.GetValue(globals.Data));
+        var context = AppContextOptions.From(parse.GetValue(globals.Config), parse.GetValue(globals.Data), parse.GetValue(globals.Site));
+        if (context.SiteOverride is { } site && !context.IsAllSites && !BatchStore.IsValidSiteCode(site))
+        {
+            throw new UsageException($"--site '{SafeText.Escape(site)}' is not a site code (a letter, then letters, digits, '-' or '_') or 'all'");
+        }
+
+        if (context.IsAllSites && !acrossSites)
+        {
+            throw new UsageException("--site all is for batches list; give one site's code for this command");
+        }
+
         using var host = Start(context, service, storeOnly: storeOnly);
         return body(host);
+    }
+
+    /// <summary>
+    /// The stores a command reads: the site of the settings (or of <c>--site CODE</c>), or with <c>--site all</c> every
+    /// site of a shared PostgreSQL store, in order of their codes (an SQLite store holds one site).
+    /// The caller disposes the stores it is given beyond the host's own.
+    /// </summary>
+    public static IReadOnlyList<(string Site, BatchStore Store, bool Owned)> Sites(IHost host)
+    {
+        var context = host.Services.GetRequiredService<AppContextOptions>();
+        var site = host.Services.GetRequiredService<IOptions<SiteOptions>>().Value.Code;
+        var own = host.Services.GetRequiredService<BatchStore>();
+        var settings = host.Services.GetRequiredService<IOptions<StoreSettings>>().Value;
+        if (!context.IsAllSites || settings.Provider != StoreProvider.Postgresql)
+        {
+            return [(site, own, false)];
+        }
+
+        var time = host.Services.GetRequiredService<TimeProvider>();
+        return BatchStore.PostgresSites(settings)
+            .Select(code => string.Equals(code, site, StringComparison.OrdinalIgnoreCase)
+                ? (code, own, false)
+                : (code, BatchStore.OpenPostgres(settings.ConnectionString!, code, settings, time), true))
+            .ToList();
     }
 
     public static IHost Start(AppContextOptions context, bool service, bool quietConsole = false, bool storeOnly = false)

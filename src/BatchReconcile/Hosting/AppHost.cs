@@ -50,6 +50,10 @@ public static class AppHost
         // The generic host's convention (Storage__ConnectionString), then the program's own prefix, which wins.
         builder.Configuration.AddEnvironmentVariables();
         builder.Configuration.AddEnvironmentVariables("BATCHRECONCILE_");
+        if (context.SiteOverride is { } siteCode && !context.IsAllSites)
+        {
+            builder.Configuration.AddInMemoryCollection([new KeyValuePair<string, string?>("Site:Code", siteCode)]);
+        }
 
         var site = builder.Configuration.GetSection(SiteOptions.Section).Get<SiteOptions>() ?? new SiteOptions();
         var folders = DataFolders.From(site, context.DataOverride);
