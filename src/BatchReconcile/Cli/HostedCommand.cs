@@ -19,20 +19,21 @@ public static partial class HostedCommand
 {
     /// <param name="storeOnly">A command that works on the store alone (lists, shows, reviews, verifies) does not load
     /// the process definitions: they play no part in its answer, and loading them was a quarter of its start-up time.</param>
-    public static int Run(ParseResult parse, GlobalOptions globals, bool service, Func<IHost, int> body, bool storeOnly = false)
+    /// <param name="openStore">Open the store the settings name before <paramref name="body"/> runs (false: the body opens what it needs).</param>
+    public static int Run(ParseResult parse, GlobalOptions globals, bool service, Func<IHost, int> body, bool storeOnly = false, bool openStore = true)
     {
         var context = AppContextOptions.From(parse.GetValue(globals.Config), parse.GetValue(globals.Data));
-        using var host = Start(context, service, storeOnly: storeOnly);
+        using var host = Start(context, service, storeOnly: storeOnly, openStore: openStore);
         return body(host);
     }
 
-    public static IHost Start(AppContextOptions context, bool service, bool quietConsole = false, bool storeOnly = false)
+    public static IHost Start(AppContextOptions context, bool service, bool quietConsole = false, bool storeOnly = false, bool openStore = true)
     {
         IHost? host = null;
         try
         {
             host = AppHost.Build(context, service, quietConsole);
-            AppHost.Validate(host.Services, definitions: !storeOnly);
+            AppHost.Validate(host.Services, definitions: !storeOnly, store: openStore);
             return host;
         }
         catch (Exception e) when (Describe(e, context) is { } reason)
