@@ -25,4 +25,10 @@ public sealed class StoreException : Exception
     /// was stored, and the same operation may be tried again later. The service waits and retries.
     /// </summary>
     public bool Transient { get; init; }
+
+    /// <summary>
+    /// The operation was refused for what the stores hold, before anything was changed (a copy into a site that already
+    /// holds data, or from a store at another schema version): not a fault, and trying again changes nothing.
+    /// </summary>
+    public bool Refused { get; init; }
 }

@@ -22,6 +22,7 @@ public static class CommandLine
         root.Subcommands.Add(DigestCommand.Create(globals, stdout));
         root.Subcommands.Add(FlagsCommand.Create(globals, stdout));
         root.Subcommands.Add(AuditCommand.Create(globals, stdout, stderr));
+        root.Subcommands.Add(StoreCommand.Create(globals, stdout, stderr));
         root.Subcommands.Add(ExportCommand.Create(globals, stdout));
         root.Subcommands.Add(TrendCommand.Create(globals, stdout));
         root.Subcommands.Add(LossesCommand.Create(globals, stdout));

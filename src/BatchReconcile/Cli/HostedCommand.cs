@@ -22,7 +22,8 @@ public static partial class HostedCommand
     /// the process definitions: they play no part in its answer, and loading them was a quarter of its start-up time.</param>
     /// <param name="acrossSites">The command reads every site with <c>--site all</c> (through <see cref="Sites"/>); any other
     /// command refuses it, since it works on one site's records.</param>
-    public static int Run(ParseResult parse, GlobalOptions globals, bool service, Func<IHost, int> body, bool storeOnly = false, bool acrossSites = false)
+    /// <param name="openStore">Open the store the settings name before <paramref name="body"/> runs (false: the body opens what it needs).</param>
+    public static int Run(ParseResult parse, GlobalOptions globals, bool service, Func<IHost, int> body, bool storeOnly = false, bool acrossSites = false, bool openStore = true)
     {
         var context = AppContextOptions.From(parse.GetValue(globals.Config), parse.GetValue(globals.Data), parse.GetValue(globals.Site));
         if (context.SiteOverride is { } site && !context.IsAllSites && !BatchStore.IsValidSiteCode(site))
@@ -35,7 +36,7 @@ public static partial class HostedCommand
             throw new UsageException("--site all is for batches list; give one site's code for this command");
         }
 
-        using var host = Start(context, service, storeOnly: storeOnly);
+        using var host = Start(context, service, storeOnly: storeOnly, openStore: openStore);
         return body(host);
     }
 
@@ -63,13 +64,13 @@ public static partial class HostedCommand
             .ToList();
     }
 
-    public static IHost Start(AppContextOptions context, bool service, bool quietConsole = false, bool storeOnly = false)
+    public static IHost Start(AppContextOptions context, bool service, bool quietConsole = false, bool storeOnly = false, bool openStore = true)
     {
         IHost? host = null;
         try
         {
             host = AppHost.Build(context, service, quietConsole);
-            AppHost.Validate(host.Services, definitions: !storeOnly);
+            AppHost.Validate(host.Services, definitions: !storeOnly, store: openStore);
             return host;
         }
         catch (Exception e) when (Describe(e, context) is { } reason)

@@ -130,7 +130,8 @@ public static class AppHost
     /// setting or definition stops the command before any file is touched.
     /// </summary>
     /// <param name="definitions">Also load and check the process definitions (every command that reads exports or renders them).</param>
-    public static void Validate(IServiceProvider services, bool definitions = true)
+    /// <param name="store">Also open the store the settings name (every command but <c>store copy</c>, which opens both stores itself).</param>
+    public static void Validate(IServiceProvider services, bool definitions = true, bool store = true)
     {
         _ = services.GetRequiredService<IOptions<SiteOptions>>().Value;
         _ = services.GetRequiredService<IOptions<IntakeOptions>>().Value;
@@ -141,7 +142,10 @@ public static class AppHost
             _ = services.GetRequiredService<CatalogSource>();
         }
 
-        _ = services.GetRequiredService<BatchStore>();
+        if (store)
+        {
+            _ = services.GetRequiredService<BatchStore>();
+        }
     }
 
     /// <summary>
