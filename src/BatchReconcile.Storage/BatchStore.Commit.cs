@@ -20,6 +20,9 @@ public sealed partial class BatchStore
     /// (<c>batch_revision.ingest_ref</c>), and each new revision of a stored batch has its own entry.</remarks>
     public const int MaxAuditedBatches = 1000;
 
+    /// <summary>How recent another instance's first ingest of the same file must be for this one to leave the file to it.</summary>
+    public static readonly TimeSpan TakenWindow = TimeSpan.FromSeconds(60);
+
     /// <summary>
     /// Stores a group of files in ONE transaction (one sync to disk for the whole group), each file
     /// all-or-nothing inside it. Files are taken in list order, so a later file sees the batches of
@@ -102,10 +105,12 @@ public sealed partial class BatchStore
     private static FileCommitResult CommitFile(CommitStatements sql, FileIngest file, DateTimeOffset now, Action rollBackFile)
     {
         var known = ReadKnownFile(sql.FindFile.Set("$sha256", file.Sha256));
-        if (known is not null && string.Equals(known.FileName, file.FileName, StringComparison.Ordinal) && known.ProcessedAt > file.ReceivedAt)
+        if (known is not null && file.ReadAt is { } readAt && string.Equals(known.FileName, file.FileName, StringComparison.Ordinal)
+            && known.ProcessedAt > file.ReceivedAt && readAt - known.ProcessedAt < TakenWindow)
         {
-            // Stored after this instance had picked the file up, under its name: another instance on the same inbox
-            // took it first (the site's write lock made this commit wait for that one). Nothing is recorded twice.
+            // Stored under its name after it arrived in the inbox, moments before this instance read it: another instance
+            // on the same inbox took it first (the site's write lock made this commit wait for that one), and moves it.
+            // Nothing is recorded twice. Past the window a file still there is a resend and is logged as a duplicate.
             return new FileCommitResult(file.FileName, file.Sha256, null, null, [], 0, null) { TakenBy = known };
         }
 

@@ -48,7 +48,7 @@ public sealed partial class BatchStore
     ];
 
     /// <summary>Tables of a PostgreSQL site that are not copied row by row (the schema's own bookkeeping).</summary>
-    private static readonly string[] PostgresOnlyTables = ["schema_version", "audit_high_water"];
+    private static readonly string[] PostgresOnlyTables = ["schema_version", "audit_high_water", "site_info"];
 
     /// <summary>
     /// Copies every row of this SQLite store into <paramref name="target"/>, the empty schema of a site in PostgreSQL: the ingest

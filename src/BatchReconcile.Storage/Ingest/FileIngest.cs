@@ -39,6 +39,21 @@ public sealed record FileIngest
     /// <summary>When the file arrived in the inbox.</summary>
     public DateTimeOffset ReceivedAt { get; }
 
+    /// <summary>
+    /// When this process read the file's bytes for the hash, on the store's clock (set by the service's pipeline).
+    /// A first ingest of the same name and bytes recorded after the file arrived and less than
+    /// <see cref="BatchStore.TakenWindow"/> before this moment was made by another instance on the same inbox, which took
+    /// the file first (<see cref="FileCommitResult.TakenBy"/>). Null: no such check.
+    /// </summary>
+    public DateTimeOffset? ReadAt { get; private set; }
+
+    /// <summary>Sets <see cref="ReadAt"/>; returns this file.</summary>
+    public FileIngest WithReadAt(DateTimeOffset readAt)
+    {
+        ReadAt = readAt;
+        return this;
+    }
+
     /// <summary>The batches of an accepted file; empty for a streamed one (they exist only while it is stored).</summary>
     public IReadOnlyList<BatchIngest> Batches { get; }
 

@@ -92,7 +92,15 @@ internal static class PostgresStore
         if (version == 0)
         {
             // The schema may exist (made by an administrator who granted it to the service) without tables.
-            Execute(connection, transaction, $"CREATE SCHEMA IF NOT EXISTS {target.Schema}");
+            using (var exists = new NpgsqlCommand("SELECT 1 FROM pg_namespace WHERE nspname = @schema", connection, transaction))
+            {
+                exists.Parameters.AddWithValue("schema", target.Schema);
+                if (exists.ExecuteScalar() is null)
+                {
+                    // Needs CREATE on the database; an administrator may instead create the schema for the service's role.
+                    Execute(connection, transaction, $"CREATE SCHEMA {target.Schema}");
+                }
+            }
             Execute(connection, transaction, $"CREATE TABLE IF NOT EXISTS {target.Schema}.schema_version (version integer PRIMARY KEY, description text NOT NULL, applied_at text NOT NULL)");
             // The site's code as settings give it (the schema name is folded to lower case).
             Execute(connection, transaction, $"CREATE TABLE IF NOT EXISTS {target.Schema}.site_info (code text NOT NULL)");

@@ -114,6 +114,7 @@ public sealed class IngestPipeline(
         byte[]? content = null;
         string? readPath = null;
         string sha256;
+        var readAt = time.GetUtcNow();
         if (file.Size <= InMemoryMaxBytes)
         {
             content = File.ReadAllBytes(file.FullPath);
@@ -130,13 +131,13 @@ public sealed class IngestPipeline(
         if (known is null)
         {
             var index = readAhead.Add(storeBatch => Produce(file with { FullPath = readPath ?? file.FullPath }, content, sha256, storeBatch));
-            return new PreparedFile(file, FileIngest.Streamed(file.Name, sha256, file.ArrivedAt, storeBatch => readAhead.Consume(index, storeBatch)), null, content, readPath);
+            return new PreparedFile(file, FileIngest.Streamed(file.Name, sha256, file.ArrivedAt, storeBatch => readAhead.Consume(index, storeBatch)).WithReadAt(readAt), null, content, readPath);
         }
 
         if (known.Outcome != IngestOutcome.Quarantined)
         {
             // Same bytes as a file already taken: no need to read it again.
-            return new PreparedFile(file, FileIngest.Accepted(file.Name, sha256, file.ArrivedAt, []), known, content, readPath);
+            return new PreparedFile(file, FileIngest.Accepted(file.Name, sha256, file.ArrivedAt, []).WithReadAt(readAt), known, content, readPath);
         }
 
         // Same bytes as a file quarantined before: logged as a duplicate and sent back to quarantine
