@@ -100,8 +100,8 @@ public class StartupValidationTests
     [InlineData("\"BusyTimeoutSeconds\": 30", "\"BusyTimeoutSeconds\": \"soon\"", "Storage:BusyTimeoutSeconds = 'soon' is not a number")]
     [InlineData("\"CoverageFactor\": 2.0", "\"CoverageFactor\": \"two\"", "Reconciliation:CoverageFactor = 'two' is not a number")]
     [InlineData("\"Default\": \"Information\"", "\"Default\": \"Loud\"", "Serilog: The value Loud is not a valid Serilog level")]
-    [InlineData("\"SettleSeconds\": 2.0", "\"SettleSeconds\": 2.0,,", "not valid JSON at line 16, position 26")]
-    [InlineData("\"SettleSeconds\": 2.0", "\"SettleSeconds\": 2.0 \"x\": 1", "not valid JSON at line 16, position 26")]
+    [InlineData("\"SettleSeconds\": 2.0", "\"SettleSeconds\": 2.0,,", "not valid JSON at line 17, position 26")]
+    [InlineData("\"SettleSeconds\": 2.0", "\"SettleSeconds\": 2.0 \"x\": 1", "not valid JSON at line 17, position 26")]
     public async Task A_setting_of_the_wrong_type_or_malformed_settings_exit_2_naming_setting_and_value(string good, string bad, string named)
     {
         using var temp = new TempFolder();
