@@ -149,12 +149,18 @@ public sealed partial class BatchStore : IDisposable
                 return;
             }
 
-            DbConnection fresh = _postgres is { } target ? PostgresStore.Open(target) : StoreConnectionFactory.Open(_connection.DataSource, _settings);
-            DropCachedStatements();
-            _connection.Dispose();
-            _connection = fresh;
-            _reopen = false;
+            Reopen();
         }
+    }
+
+    /// <summary>Replaces the connection with a fresh one to the same database (the caller holds the gate).</summary>
+    private void Reopen()
+    {
+        DbConnection fresh = _postgres is { } target ? PostgresStore.Open(target) : StoreConnectionFactory.Open(_connection.DataSource, _settings);
+        DropCachedStatements();
+        _connection.Dispose();
+        _connection = fresh;
+        _reopen = false;
     }
 
     /// <summary>
@@ -255,13 +261,9 @@ public sealed partial class BatchStore : IDisposable
     private void ThrowIfDisposed()
     {
         ObjectDisposedException.ThrowIf(_disposed, this);
-        if (_postgres is { } target && _connection.State != System.Data.ConnectionState.Open)
+        if (_postgres is not null && _connection.State != System.Data.ConnectionState.Open)
         {
-            var fresh = PostgresStore.Open(target);
-            DropCachedStatements();
-            _connection.Dispose();
-            _connection = fresh;
-            _reopen = false;
+            Reopen();
         }
     }
 

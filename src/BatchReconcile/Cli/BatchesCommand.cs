@@ -58,7 +58,7 @@ public static class BatchesCommand
         {
             var (from, to) = history.Days(parse);
             var sites = HostedCommand.Sites(host);
-            var across = sites.Count > 1 || parse.GetValue(globals.Site) is Hosting.AppContextOptions.AllSites;
+            var across = host.Services.GetRequiredService<Hosting.AppContextOptions>().IsAllSites;
             var recipe = sites.Count == 1 ? history.KnownRecipe(parse, sites[0].Store) : parse.GetValue(history.Recipe)?.Trim();
             var batches = new List<BatchSummary>();
             var siteOf = new List<string>();

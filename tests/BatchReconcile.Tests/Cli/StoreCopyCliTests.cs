@@ -3,6 +3,7 @@ using System.Text.Json;
 using System.Text.Json.Nodes;
 using BatchReconcile.Cli;
 using BatchReconcile.Storage;
+using BatchReconcile.Storage.Tests.Support;
 using BatchReconcile.Tests.Support;
 using Microsoft.Data.Sqlite;
 using Npgsql;
@@ -17,16 +18,15 @@ namespace BatchReconcile.Tests.Cli;
 /// </summary>
 public sealed class StoreCopyCliTests : IDisposable
 {
-    private const string TestDatabase = "batchreconcile_tests";
     private readonly HostSandbox _sandbox = new(TimeProvider.System);
-    private readonly string _site = "c" + Guid.NewGuid().ToString("N")[..20];
+    private readonly string _site = PostgresTestServer.NewSiteCode();
     private readonly string _variable = "BATCHRECONCILE_COPY_TEST_" + Guid.NewGuid().ToString("N")[..12].ToUpperInvariant();
     private readonly string _connectionString;
     private readonly string _config;
 
     public StoreCopyCliTests()
     {
-        _connectionString = TestServer();
+        _connectionString = PostgresTestServer.ConnectionString;
         Environment.SetEnvironmentVariable(_variable, _connectionString);
 
         // The repository's config with this test's own site code.
@@ -57,12 +57,7 @@ public sealed class StoreCopyCliTests : IDisposable
         Environment.SetEnvironmentVariable(_variable, null);
         SqliteConnection.ClearAllPools();
         NpgsqlConnection.ClearAllPools();
-        using (var connection = new NpgsqlConnection(_connectionString))
-        {
-            connection.Open();
-            using var drop = new NpgsqlCommand($"DROP SCHEMA IF EXISTS site_{_site} CASCADE", connection);
-            drop.ExecuteNonQuery();
-        }
+        PostgresTestServer.DropSite(_site);
 
         _sandbox.Dispose();
     }
@@ -152,35 +147,6 @@ public sealed class StoreCopyCliTests : IDisposable
         using var command = connection.CreateCommand();
         command.CommandText = $"SELECT count(*) FROM {table}";
         return Convert.ToInt64(command.ExecuteScalar(), CultureInfo.InvariantCulture);
-    }
-
-    /// <summary>The tests' own database on the server of <c>BATCHRECONCILE_TEST_POSTGRES</c> (created when missing, as the storage tests do).</summary>
-    private static string TestServer()
-    {
-        var admin = Environment.GetEnvironmentVariable("BATCHRECONCILE_TEST_POSTGRES") is { Length: > 0 } value
-            ? value
-            : throw new InvalidOperationException(
-                "BATCHRECONCILE_TEST_POSTGRES is not set: the store copy test needs a PostgreSQL server. Run the tests with scripts/test, which starts a throw-away cluster.");
-        using (var connection = new NpgsqlConnection(admin))
-        {
-            connection.Open();
-            using var exists = new NpgsqlCommand("SELECT 1 FROM pg_database WHERE datname = @name", connection);
-            exists.Parameters.AddWithValue("name", TestDatabase);
-            if (exists.ExecuteScalar() is null)
-            {
-                using var create = new NpgsqlCommand($"CREATE DATABASE {TestDatabase} TEMPLATE template0 ENCODING 'UTF8' LC_COLLATE 'C' LC_CTYPE 'C'", connection);
-                try
-                {
-                    create.ExecuteNonQuery();
-                }
-                catch (PostgresException e) when (e.SqlState is "42P04" or "23505")
-                {
-                    // Another test process created it at the same moment.
-                }
-            }
-        }
-
-        return new NpgsqlConnectionStringBuilder(admin) { Database = TestDatabase }.ConnectionString;
     }
 
     private static void CopyFolder(string from, string to)
