@@ -240,7 +240,8 @@ internal static class StoreQueries
 
     /// <summary>
     /// The steps of a recipe (any version, current revisions), by the step order of the newest batch that has each.
-    /// Walks the distinct steps through <c>ix_step_result_history</c> one seek at a time instead of reading every row.
+    /// Walks the distinct steps through <c>ix_step_result_history</c> one seek at a time instead of reading every row. The
+    /// order is filtered in an outer query because PostgreSQL, unlike SQLite, does not let WHERE name a column alias.
     /// </summary>
     public const string RecipeSteps = """
         WITH RECURSIVE steps (step) AS (
@@ -249,10 +250,12 @@ internal static class StoreQueries
             SELECT (SELECT min(x.step) FROM step_result x WHERE x.recipe = $recipe AND x.step > steps.step)
             FROM steps WHERE steps.step IS NOT NULL
         )
-        SELECT step, (SELECT s.step_order FROM step_result s WHERE s.recipe = $recipe AND s.step = steps.step AND s.is_current = 1
-                      ORDER BY s.production_day DESC LIMIT 1) AS step_order
-        FROM steps
-        WHERE step IS NOT NULL AND step_order IS NOT NULL
+        SELECT step, step_order FROM (
+            SELECT step, (SELECT s.step_order FROM step_result s WHERE s.recipe = $recipe AND s.step = steps.step AND s.is_current = 1
+                          ORDER BY s.production_day DESC LIMIT 1) AS step_order
+            FROM steps
+            WHERE step IS NOT NULL) AS ordered
+        WHERE step_order IS NOT NULL
         ORDER BY step_order, step
         """;
 

@@ -54,9 +54,3 @@ internal sealed class TempDatabase : IDisposable
         }
     }
 }
-
-/// <summary>The providers every provider-neutral store test runs on (<c>[MemberData(nameof(Providers.Both), MemberType = typeof(Providers))]</c>).</summary>
-public static class Providers
-{
-    public static TheoryData<StoreProvider> Both => new() { StoreProvider.Sqlite, StoreProvider.Postgresql };
-}

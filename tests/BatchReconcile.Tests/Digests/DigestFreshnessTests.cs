@@ -18,7 +18,7 @@ namespace BatchReconcile.Tests.Digests;
 /// Issue 9, point 1: a digest never goes stale. The demo plant (Europe/Berlin, days from 06:00, digest at 07:30)
 /// with the sample week stored, and a clock the test moves; the service's pass is called as its loop calls it.
 /// </summary>
-public sealed class DigestFreshnessTests : IDisposable
+public abstract class DigestFreshnessTests : IDisposable
 {
     private const string Slug = "kestrel-bay-fine-chemicals-building-3";
     private static readonly DateTimeOffset Stored = DateTimeOffset.Parse("2026-11-28T07:00:00+01:00", CultureInfo.InvariantCulture);
@@ -27,7 +27,7 @@ public sealed class DigestFreshnessTests : IDisposable
     private readonly FakeTimeProvider _clock = new(DateTimeOffset.Parse("2026-11-27T14:00:00+01:00", CultureInfo.InvariantCulture));
     private readonly HostSandbox _sandbox;
 
-    public DigestFreshnessTests() => _sandbox = new HostSandbox(_clock);
+    protected DigestFreshnessTests(StoreProvider provider) => _sandbox = new HostSandbox(_clock, provider);
 
     [Fact]
     public void A_late_file_for_a_day_with_a_digest_is_in_it_after_the_next_pass_which_says_what_it_replaces_and_keeps_the_first_issue()
@@ -150,30 +150,6 @@ public sealed class DigestFreshnessTests : IDisposable
         Assert.True(File.Exists(provisional.Files[0]));
     }
 
-    // The demo plant: days from 06:00 Europe/Berlin (UTC+01:00 in November). "now" is 2026-11-27 14:00 +01:00.
-    [Theory]
-    [InlineData("2026-11-26", false, true, null)]
-    [InlineData("2026-11-27", false, null, "digest --day 2026-11-27: that production day has not ended yet (it ends 2026-11-28 06:00 +01:00); --provisional writes a provisional digest")]
-    [InlineData("2026-11-29", false, null, "digest --day 2026-11-29: that production day has not started yet (it ends 2026-11-30 06:00 +01:00); --provisional writes a provisional digest")]
-    [InlineData("2026-11-27", true, false, null)]
-    [InlineData("2026-11-29", true, false, null)]
-    [InlineData("2026-11-26", true, null, "--provisional: production day 2026-11-26 has ended (2026-11-27 06:00 +01:00); write its digest without --provisional")]
-    public void Digest_day_refuses_a_day_that_has_not_ended_unless_provisional(string day, bool provisional, bool? ended, string? refusal)
-    {
-        var calendar = new ProductionDayCalendar(TimeZoneInfo.FindSystemTimeZoneById("Europe/Berlin"), new TimeOnly(6, 0));
-        var now = DateTimeOffset.Parse("2026-11-27T14:00:00+01:00", CultureInfo.InvariantCulture);
-        var target = DateOnly.Parse(day, CultureInfo.InvariantCulture);
-
-        if (refusal is null)
-        {
-            Assert.Equal(ended, DigestCommand.EndedOrRefuse(calendar, target, now, provisional));
-        }
-        else
-        {
-            Assert.Equal(refusal, Assert.Throws<UsageException>(() => DigestCommand.EndedOrRefuse(calendar, target, now, provisional)).Message);
-        }
-    }
-
     private static string Iso(DateOnly day) => day.ToString("yyyy-MM-dd", CultureInfo.InvariantCulture);
 
     private static string Digests(IHost host) => host.Services.GetRequiredService<DataFolders>().Digests;
@@ -206,5 +182,43 @@ public sealed class DigestFreshnessTests : IDisposable
         return host;
     }
 
-    public void Dispose() => _sandbox.Dispose();
+    public void Dispose()
+    {
+        _sandbox.Dispose();
+        GC.SuppressFinalize(this);
+    }
+}
+
+/// <summary>The tests above on the embedded store.</summary>
+public sealed class DigestFreshnessTestsOnSqlite() : DigestFreshnessTests(StoreProvider.Sqlite);
+
+/// <summary>The tests above on PostgreSQL (a site of its own on the tests' server).</summary>
+public sealed class DigestFreshnessTestsOnPostgresql() : DigestFreshnessTests(StoreProvider.Postgresql);
+
+/// <summary>Which days <c>digest --day</c> takes, with and without --provisional: no store involved.</summary>
+public sealed class DigestDayRefusalTests
+{
+    // The demo plant: days from 06:00 Europe/Berlin (UTC+01:00 in November). "now" is 2026-11-27 14:00 +01:00.
+    [Theory]
+    [InlineData("2026-11-26", false, true, null)]
+    [InlineData("2026-11-27", false, null, "digest --day 2026-11-27: that production day has not ended yet (it ends 2026-11-28 06:00 +01:00); --provisional writes a provisional digest")]
+    [InlineData("2026-11-29", false, null, "digest --day 2026-11-29: that production day has not started yet (it ends 2026-11-30 06:00 +01:00); --provisional writes a provisional digest")]
+    [InlineData("2026-11-27", true, false, null)]
+    [InlineData("2026-11-29", true, false, null)]
+    [InlineData("2026-11-26", true, null, "--provisional: production day 2026-11-26 has ended (2026-11-27 06:00 +01:00); write its digest without --provisional")]
+    public void Digest_day_refuses_a_day_that_has_not_ended_unless_provisional(string day, bool provisional, bool? ended, string? refusal)
+    {
+        var calendar = new ProductionDayCalendar(TimeZoneInfo.FindSystemTimeZoneById("Europe/Berlin"), new TimeOnly(6, 0));
+        var now = DateTimeOffset.Parse("2026-11-27T14:00:00+01:00", CultureInfo.InvariantCulture);
+        var target = DateOnly.Parse(day, CultureInfo.InvariantCulture);
+
+        if (refusal is null)
+        {
+            Assert.Equal(ended, DigestCommand.EndedOrRefuse(calendar, target, now, provisional));
+        }
+        else
+        {
+            Assert.Equal(refusal, Assert.Throws<UsageException>(() => DigestCommand.EndedOrRefuse(calendar, target, now, provisional)).Message);
+        }
+    }
 }

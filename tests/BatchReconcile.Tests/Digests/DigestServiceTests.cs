@@ -14,14 +14,15 @@ namespace BatchReconcile.Tests.Digests;
 
 /// <summary>
 /// The digest schedule inside the host: a real data folder and database, the demo plant's settings
-/// (Europe/Berlin, days from 06:00, digest at 07:30, catch-up 7 days) and a clock the test moves.
+/// (Europe/Berlin, days from 06:00, digest at 07:30, catch-up 7 days) and a clock the test moves; on both stores
+/// (one fixture, a subclass per provider at the end of the file).
 /// </summary>
-public sealed class DigestServiceTests : IDisposable
+public abstract class DigestServiceTests : IDisposable
 {
     private readonly FakeTimeProvider _clock = new(DateTimeOffset.Parse("2026-11-28T07:00:00+01:00", CultureInfo.InvariantCulture));
     private readonly HostSandbox _sandbox;
 
-    public DigestServiceTests() => _sandbox = new HostSandbox(_clock);
+    protected DigestServiceTests(StoreProvider provider) => _sandbox = new HostSandbox(_clock, provider);
 
     [Fact]
     public void Missed_days_are_written_on_start_the_due_day_at_its_time_and_none_twice()
@@ -113,5 +114,15 @@ public sealed class DigestServiceTests : IDisposable
         days.Select(d => DateOnly.ParseExact(d, "yyyy-MM-dd", CultureInfo.InvariantCulture)).ToArray();
 
 
-    public void Dispose() => _sandbox.Dispose();
+    public void Dispose()
+    {
+        _sandbox.Dispose();
+        GC.SuppressFinalize(this);
+    }
 }
+
+/// <summary>The tests above on the embedded store.</summary>
+public sealed class DigestServiceTestsOnSqlite() : DigestServiceTests(StoreProvider.Sqlite);
+
+/// <summary>The tests above on PostgreSQL (a site of its own on the tests' server).</summary>
+public sealed class DigestServiceTestsOnPostgresql() : DigestServiceTests(StoreProvider.Postgresql);
