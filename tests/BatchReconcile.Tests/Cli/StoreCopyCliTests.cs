@@ -31,7 +31,7 @@ public sealed class StoreCopyCliTests : IDisposable
 
         // The repository's config with this test's own site code.
         _config = Path.Combine(_sandbox.Root, "config");
-        CopyFolder(Path.Combine(HostSandbox.RepositoryRoot, "config"), _config);
+        HostSandbox.CopyFolder(Path.Combine(HostSandbox.RepositoryRoot, "config"), _config);
         var settings = Path.Combine(_config, "appsettings.json");
         var json = JsonNode.Parse(File.ReadAllText(settings))!;
         json["Site"]!["Code"] = _site;
@@ -147,19 +147,5 @@ public sealed class StoreCopyCliTests : IDisposable
         using var command = connection.CreateCommand();
         command.CommandText = $"SELECT count(*) FROM {table}";
         return Convert.ToInt64(command.ExecuteScalar(), CultureInfo.InvariantCulture);
-    }
-
-    private static void CopyFolder(string from, string to)
-    {
-        Directory.CreateDirectory(to);
-        foreach (var file in Directory.EnumerateFiles(from))
-        {
-            File.Copy(file, Path.Combine(to, Path.GetFileName(file)));
-        }
-
-        foreach (var folder in Directory.EnumerateDirectories(from))
-        {
-            CopyFolder(folder, Path.Combine(to, Path.GetFileName(folder)));
-        }
     }
 }

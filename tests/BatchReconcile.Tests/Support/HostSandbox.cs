@@ -110,7 +110,8 @@ public sealed class HostSandbox : IDisposable
         return connection;
     }
 
-    private static void CopyFolder(string from, string to)
+    /// <summary>Copies a folder with everything in it (a config folder a test changes).</summary>
+    public static void CopyFolder(string from, string to)
     {
         Directory.CreateDirectory(to);
         foreach (var file in Directory.EnumerateFiles(from))
