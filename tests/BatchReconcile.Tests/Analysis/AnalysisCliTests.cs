@@ -1,5 +1,6 @@
 using System.Globalization;
 using System.Text.Json;
+using BatchReconcile.Storage;
 using BatchReconcile.Tests.Support;
 
 namespace BatchReconcile.Tests.Analysis;
@@ -10,7 +11,7 @@ namespace BatchReconcile.Tests.Analysis;
 /// an acylation yield far above the rest; then 7 of version 2, whose amination runs in 220 instead of 300 kg toluene and isolates
 /// more lidocaine. Expected figures are worked from the charges here, not read back from the program.
 /// </summary>
-public sealed class AnalysisCliTests : IClassFixture<AnalysisCliTests.Plant>
+public abstract class AnalysisCliTests
 {
     public const int Count = 30, LastOfVersion1 = 23, Outlier = 20;
 
@@ -22,7 +23,7 @@ public sealed class AnalysisCliTests : IClassFixture<AnalysisCliTests.Plant>
 
     private readonly Plant _plant;
 
-    public AnalysisCliTests(Plant plant) => _plant = plant;
+    protected AnalysisCliTests(Plant plant) => _plant = plant;
 
     public static DateOnly Day(int n) => new DateOnly(2026, 11, 1).AddDays(n);
 
@@ -315,32 +316,36 @@ public sealed class AnalysisCliTests : IClassFixture<AnalysisCliTests.Plant>
         {
         }
 
-        private static long Count(AnalysisSandbox s)
-        {
-            using var connection = new Microsoft.Data.Sqlite.SqliteConnection(new Microsoft.Data.Sqlite.SqliteConnectionStringBuilder
-            {
-                DataSource = Path.Combine(s.Data, "batchreconcile.db"),
-                Mode = Microsoft.Data.Sqlite.SqliteOpenMode.ReadOnly,
-                Pooling = false,
-            }.ToString());
-            connection.Open();
-            using var command = connection.CreateCommand();
-            command.CommandText = "SELECT (SELECT count(*) FROM batch_revision) + (SELECT count(*) FROM flag) + (SELECT count(*) FROM audit_event) + (SELECT count(*) FROM step_result)";
-            return Convert.ToInt64(command.ExecuteScalar(), CultureInfo.InvariantCulture);
-        }
+        private static long Count(AnalysisSandbox s) =>
+            s.Scalar("SELECT (SELECT count(*) FROM batch_revision) + (SELECT count(*) FROM flag) + (SELECT count(*) FROM audit_event) + (SELECT count(*) FROM step_result)");
     }
 
-    /// <summary>The 30 batches, ingested once for the class.</summary>
-    public sealed class Plant : IDisposable
+    /// <summary>The 30 batches, ingested once for the class, on one store.</summary>
+    public abstract class Plant : IDisposable
     {
-        public Plant()
+        protected Plant(StoreProvider provider)
         {
+            Sandbox = new(provider);
             Sandbox.Ingest(Enumerable.Range(1, Count).Select(n =>
                 LidocaineRoute.Export(AnalysisSandbox.BatchId(n), Version(n), Day(n), Cdma(n), Lid(n), Salt(n))));
         }
 
-        public AnalysisSandbox Sandbox { get; } = new();
+        public AnalysisSandbox Sandbox { get; }
 
-        public void Dispose() => Sandbox.Dispose();
+        public void Dispose()
+        {
+            Sandbox.Dispose();
+            GC.SuppressFinalize(this);
+        }
     }
+
+    public sealed class SqlitePlant() : Plant(StoreProvider.Sqlite);
+
+    public sealed class PostgresqlPlant() : Plant(StoreProvider.Postgresql);
 }
+
+/// <summary>The tests above on the embedded store.</summary>
+public sealed class AnalysisCliTestsOnSqlite(AnalysisCliTests.SqlitePlant plant) : AnalysisCliTests(plant), IClassFixture<AnalysisCliTests.SqlitePlant>;
+
+/// <summary>The tests above on PostgreSQL (a site of its own on the tests' server).</summary>
+public sealed class AnalysisCliTestsOnPostgresql(AnalysisCliTests.PostgresqlPlant plant) : AnalysisCliTests(plant), IClassFixture<AnalysisCliTests.PostgresqlPlant>;

@@ -1,5 +1,6 @@
 using System.Globalization;
 using System.Text.Json;
+using BatchReconcile.Storage;
 using BatchReconcile.Tests.Support;
 
 namespace BatchReconcile.Tests.Analysis;
@@ -9,15 +10,16 @@ namespace BatchReconcile.Tests.Analysis;
 /// <c>digest</c> in process: 29 ordinary batches of the lidocaine route, then one whose acylation yield is inside the
 /// master-record limits but far above its trend, and whose amination yield is low (flagged).
 /// </summary>
-public sealed class DigestTrendTests : IDisposable
+public abstract class DigestTrendTests : IDisposable
 {
     // Kilograms of CDMA isolated at S1 in the 29 ordinary batches (a repeating pattern), then 93.5 kg in batch 30.
     private static readonly double[] Pattern = [0.0, 0.6, 1.2, 0.9, 1.8, 1.5, 0.3, 0.4, 2.1, 1.0];
     private static readonly DateOnly First = new(2026, 10, 27);
-    private readonly AnalysisSandbox _plant = new();
+    private readonly AnalysisSandbox _plant;
 
-    public DigestTrendTests()
+    protected DigestTrendTests(StoreProvider provider)
     {
+        _plant = new(provider);
         var exports = new List<string>();
         for (var n = 1; n <= 30; n++)
         {
@@ -86,5 +88,15 @@ public sealed class DigestTrendTests : IDisposable
         Assert.Contains("No step was flagged on this day.", html, StringComparison.Ordinal);
     }
 
-    public void Dispose() => _plant.Dispose();
+    public void Dispose()
+    {
+        _plant.Dispose();
+        GC.SuppressFinalize(this);
+    }
 }
+
+/// <summary>The tests above on the embedded store.</summary>
+public sealed class DigestTrendTestsOnSqlite() : DigestTrendTests(StoreProvider.Sqlite);
+
+/// <summary>The tests above on PostgreSQL (a site of its own on the tests' server).</summary>
+public sealed class DigestTrendTestsOnPostgresql() : DigestTrendTests(StoreProvider.Postgresql);

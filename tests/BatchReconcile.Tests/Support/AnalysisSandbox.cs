@@ -1,30 +1,38 @@
 using System.Globalization;
 using BatchReconcile.Cli;
+using BatchReconcile.Storage;
 
 namespace BatchReconcile.Tests.Support;
 
 /// <summary>
 /// A config folder with the repository's site settings and the lidocaine route only, a data folder, and the command line
-/// run in process against both. Batches go in through <c>ingest</c> of generated exports, as a user's would.
+/// run in process against both, on either store (<see cref="HostSandbox"/>). Batches go in through <c>ingest</c> of
+/// generated exports, as a user's would.
 /// </summary>
 public sealed class AnalysisSandbox : IDisposable
 {
-    private readonly HostSandbox _sandbox = new(TimeProvider.System);
+    private readonly HostSandbox _sandbox;
     private int _files;
 
-    public AnalysisSandbox()
+    public AnalysisSandbox(StoreProvider provider = StoreProvider.Sqlite)
     {
+        _sandbox = new(TimeProvider.System, provider);
         Config = Path.Combine(_sandbox.Root, "config");
         Directory.CreateDirectory(Path.Combine(Config, "processes"));
         File.Copy(Path.Combine(HostSandbox.RepositoryRoot, "config", "appsettings.json"), Path.Combine(Config, "appsettings.json"));
         File.WriteAllText(Path.Combine(Config, "processes", "lidocaine.json"), LidocaineRoute.Definitions);
+        _sandbox.UseStoreIn(Config);
     }
 
     public string Root => _sandbox.Root;
 
     public string Config { get; }
 
-    public string Data => Path.Combine(_sandbox.Root, "data");
+    /// <summary>The data folder (the SQLite store's file and the digests), which is the sandbox's root.</summary>
+    public string Data => _sandbox.Root;
+
+    /// <summary>One value from the store (<see cref="HostSandbox.Scalar"/>).</summary>
+    public long Scalar(string sql) => _sandbox.Scalar(sql);
 
     /// <summary>Batch ids as the plant names them: KB3-LD-001 ...</summary>
     public static string BatchId(int n) => string.Create(CultureInfo.InvariantCulture, $"KB3-LD-{n:000}");

@@ -32,13 +32,27 @@ public sealed class HostSandbox : IDisposable
             SiteCode = PostgresTestServer.NewSiteCode();
             Config = Root + "-config";
             CopyFolder(Path.Combine(RepositoryRoot, "config"), Config);
-            var file = Path.Combine(Config, "appsettings.json");
-            var settings = JsonNode.Parse(File.ReadAllText(file))!;
-            settings["Site"]!["Code"] = SiteCode;
-            settings["Storage"]!["Provider"] = "postgresql";
-            settings["Storage"]!["ConnectionString"] = PostgresTestServer.ConnectionString;
-            File.WriteAllText(file, settings.ToJsonString());
+            UseStoreIn(Config);
         }
+    }
+
+    /// <summary>
+    /// Points the settings of a config folder (a copy of the repository's) at this sandbox's store: for PostgreSQL
+    /// its site on the tests' server; the SQLite store needs nothing (it is the data folder's file).
+    /// </summary>
+    public void UseStoreIn(string config)
+    {
+        if (Provider != StoreProvider.Postgresql)
+        {
+            return;
+        }
+
+        var file = Path.Combine(config, "appsettings.json");
+        var settings = JsonNode.Parse(File.ReadAllText(file))!;
+        settings["Site"]!["Code"] = SiteCode;
+        settings["Storage"]!["Provider"] = "postgresql";
+        settings["Storage"]!["ConnectionString"] = PostgresTestServer.ConnectionString;
+        File.WriteAllText(file, settings.ToJsonString());
     }
 
     public string Root { get; } = Path.Combine(Path.GetTempPath(), "batchreconcile-tests", Guid.NewGuid().ToString("N"));
