@@ -4,21 +4,21 @@ using BatchReconcile.Cli;
 using BatchReconcile.Storage;
 using BatchReconcile.Storage.Queries;
 using BatchReconcile.Tests.Support;
-using Microsoft.Data.Sqlite;
 
 namespace BatchReconcile.Tests.Cli;
 
 /// <summary>
 /// <c>batches list</c>, <c>flags show</c>, <c>audit list</c>/<c>show</c> and <c>export steps</c> in process, on a real
 /// database filled by <c>ingest</c> of a copy of the demo plant's exports (sample-data/inbox). Expected lists are read
-/// from the store itself, so the checks hold however the sample grows.
+/// from the store itself, so the checks hold however the sample grows. On either store (<see cref="HostSandbox"/>).
 /// </summary>
-public sealed class AcrossBatchesCliTests : IDisposable
+public abstract class AcrossBatchesCliTests : IDisposable
 {
-    private readonly HostSandbox _sandbox = new(TimeProvider.System);
+    private readonly HostSandbox _sandbox;
 
-    public AcrossBatchesCliTests()
+    protected AcrossBatchesCliTests(StoreProvider provider)
     {
+        _sandbox = new(TimeProvider.System, provider);
         var drop = Path.Combine(_sandbox.Root, "drop");
         Directory.CreateDirectory(drop);
         foreach (var file in Directory.EnumerateFiles(Path.Combine(HostSandbox.RepositoryRoot, "sample-data", "inbox"), "*.csv"))
@@ -30,23 +30,13 @@ public sealed class AcrossBatchesCliTests : IDisposable
         Assert.True(ingest.Exit is 0 or 3, ingest.Err);
     }
 
-    private string Data => Path.Combine(_sandbox.Root, "data");
-
-    private string Database => Path.Combine(Data, "batchreconcile.db");
-
     public void Dispose()
     {
-        SqliteConnection.ClearAllPools();
         _sandbox.Dispose();
+        GC.SuppressFinalize(this);
     }
 
-    private (int Exit, string Out, string Err) Run(params string[] args)
-    {
-        using var stdout = new StringWriter(CultureInfo.InvariantCulture);
-        using var stderr = new StringWriter(CultureInfo.InvariantCulture);
-        var exit = CommandLine.Run([.. args, "--config", Path.Combine(HostSandbox.RepositoryRoot, "config"), "--data", Data], stdout, stderr);
-        return (exit, stdout.ToString(), stderr.ToString());
-    }
+    private (int Exit, string Out, string Err) Run(params string[] args) => _sandbox.Run(args);
 
     private JsonElement Json(params string[] args)
     {
@@ -57,18 +47,16 @@ public sealed class AcrossBatchesCliTests : IDisposable
 
     private T WithStore<T>(Func<BatchStore, T> read)
     {
-        using var store = BatchStore.Open(Database, new StoreSettings());
+        using var store = _sandbox.OpenStore();
         return read(store);
     }
 
-    private void Sql(string sql)
-    {
-        using var connection = new SqliteConnection($"Data Source={Database};Pooling=False");
-        connection.Open();
-        using var command = connection.CreateCommand();
-        command.CommandText = sql;
-        command.ExecuteNonQuery();
-    }
+    /// <summary>Changes stored rows behind the program's back (<see cref="HostSandbox.Tamper"/>).</summary>
+    private void Sql(string sql) => _sandbox.Tamper(sql);
+
+    /// <summary>Rows of revisions, flags, step results and the audit trail: what a refused command must leave as it was.</summary>
+    private long StoredRows() =>
+        _sandbox.Scalar("SELECT (SELECT count(*) FROM batch_revision) + (SELECT count(*) FROM flag) + (SELECT count(*) FROM audit_event) + (SELECT count(*) FROM step_result)");
 
     [Fact]
     public void Batches_list_gives_every_current_batch_in_production_order_in_json_and_text()
@@ -129,7 +117,7 @@ public sealed class AcrossBatchesCliTests : IDisposable
     [InlineData(new[] { "export", "steps", "--from", "2026-11-30", "--to", "2026-11-01", "--out", "x.csv" }, "--from 2026-11-30 is after --to 2026-11-01")]
     public void Bad_input_exits_2_with_one_line_naming_the_option_and_value(string[] args, string named)
     {
-        var before = File.ReadAllBytes(Database).Length;
+        var before = StoredRows();
 
         var result = Run(args);
 
@@ -137,7 +125,7 @@ public sealed class AcrossBatchesCliTests : IDisposable
         Assert.Contains(named, result.Err, StringComparison.Ordinal);
         Assert.Single(result.Err.TrimEnd().Split('\n'));
         Assert.Equal(string.Empty, result.Out);
-        Assert.Equal(before, File.ReadAllBytes(Database).Length);
+        Assert.Equal(before, StoredRows());
     }
 
     [Fact]
@@ -269,3 +257,9 @@ public sealed class AcrossBatchesCliTests : IDisposable
         Assert.Equal(rows.Count(r => r.Recipe == recipe) + 1, File.ReadAllText(one).Split("\r\n", StringSplitOptions.RemoveEmptyEntries).Length);
     }
 }
+
+/// <summary>The tests above on the embedded store.</summary>
+public sealed class AcrossBatchesCliTestsOnSqlite() : AcrossBatchesCliTests(StoreProvider.Sqlite);
+
+/// <summary>The tests above on PostgreSQL (a site of its own on the tests' server).</summary>
+public sealed class AcrossBatchesCliTestsOnPostgresql() : AcrossBatchesCliTests(StoreProvider.Postgresql);

@@ -85,6 +85,11 @@ public sealed class HostSandbox : IDisposable
         return (exit, stdout.ToString(), stderr.ToString());
     }
 
+    /// <summary>The sandbox's store opened directly, as the program opens it (the caller disposes it).</summary>
+    public BatchStore OpenStore() => Provider == StoreProvider.Sqlite
+        ? BatchStore.Open(Path.Combine(Root, "batchreconcile.db"), new StoreSettings())
+        : BatchStore.OpenPostgres(PostgresTestServer.ConnectionString, SiteCode, new StoreSettings { Provider = StoreProvider.Postgresql });
+
     /// <summary>One value from the store, for what the commands do not show; the SQL is the test's own.</summary>
     public long Scalar(string sql)
     {
