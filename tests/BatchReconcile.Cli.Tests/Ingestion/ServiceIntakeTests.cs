@@ -5,10 +5,10 @@ namespace BatchReconcile.Cli.Tests.Ingestion;
 
 /// <summary>
 /// <c>run</c> as a real process on a temporary config and data folder, fed the way exporters write:
-/// slowly in place, via <c>.part</c> and a rename, many files at once, a resend and a re-export.
+/// slowly in place, via <c>.part</c> and a rename, many files at once, a resend and a re-export; on either store.
 /// </summary>
 [Collection(ServiceCollection.Name)]
-public class ServiceIntakeTests
+public abstract class ServiceIntakeTests(bool postgres)
 {
     private const string Benzamide = "2026-11-23T1705_KB3-NB-0158.csv";
 
@@ -17,7 +17,7 @@ public class ServiceIntakeTests
     {
         // Pauses between chunks are a sixth of the settle interval; the whole write takes twice as long as it.
         const double settle = 1.5;
-        using var sandbox = new ServiceSandbox(settleSeconds: settle);
+        using var sandbox = new ServiceSandbox(settleSeconds: settle, postgres: postgres);
         var export = ExportText.FromSample(Benzamide).WithBatchId("E2E-SLOW-1");
         var expected = await CheckStepsAsync(sandbox, export);
         using var service = await sandbox.StartAsync();
@@ -47,14 +47,14 @@ public class ServiceIntakeTests
         Assert.Equal(1, shown.GetProperty("revision").GetInt32());
         Assert.Equal(1, shown.GetProperty("revisions").GetInt32());
         Assert.Equal(expected, JsonCanonical.Text(shown.GetProperty("steps")));
-        Assert.Equal(export.DataRowCount, sandbox.Data.Scalar("SELECT coalesce(sum(line_count), 0) FROM raw_rows"));
+        Assert.Equal(export.DataRowCount, sandbox.Scalar("SELECT coalesce(sum(line_count), 0) FROM raw_rows"));
     }
 
     [Fact]
     public async Task A_file_written_as_part_and_renamed_is_stored_and_the_part_is_never_read()
     {
         const double settle = 0.3;
-        using var sandbox = new ServiceSandbox(settleSeconds: settle);
+        using var sandbox = new ServiceSandbox(settleSeconds: settle, postgres: postgres);
         var export = ExportText.FromSample(Benzamide).WithBatchId("E2E-PART-1");
         using var service = await sandbox.StartAsync();
 
@@ -91,7 +91,7 @@ public class ServiceIntakeTests
     public async Task Forty_files_dropped_together_are_all_stored_each_exactly_once()
     {
         const int count = 40;
-        using var sandbox = new ServiceSandbox();
+        using var sandbox = new ServiceSandbox(postgres: postgres);
         var sample = ExportText.FromSample(Benzamide);
         var names = Enumerable.Range(1, count).Select(i => $"many-{i:D3}.csv").ToList();
         foreach (var (name, i) in names.Select((n, i) => (n, i + 1)))
@@ -112,10 +112,10 @@ public class ServiceIntakeTests
         Assert.All(log, l => Assert.Equal("stored", l.Outcome));
         Assert.Equal(names, sandbox.Data.ArchivedFiles());
         Assert.Empty(sandbox.Data.QuarantinedFiles());
-        Assert.Equal(count, sandbox.Data.Scalar("SELECT COUNT(*) FROM batch"));
-        Assert.Equal(count, sandbox.Data.Scalar("SELECT COUNT(*) FROM batch_revision"));
-        Assert.Equal(1, sandbox.Data.Scalar("SELECT MAX(revision) FROM batch_revision"));
-        Assert.Equal(count * sample.DataRowCount, sandbox.Data.Scalar("SELECT coalesce(sum(line_count), 0) FROM raw_rows"));
+        Assert.Equal(count, sandbox.Scalar("SELECT COUNT(*) FROM batch"));
+        Assert.Equal(count, sandbox.Scalar("SELECT COUNT(*) FROM batch_revision"));
+        Assert.Equal(1, sandbox.Scalar("SELECT MAX(revision) FROM batch_revision"));
+        Assert.Equal(count * sample.DataRowCount, sandbox.Scalar("SELECT coalesce(sum(line_count), 0) FROM raw_rows"));
         foreach (var id in new[] { "E2E-MANY-001", $"E2E-MANY-{count:D3}" })
         {
             Assert.Equal(1, (await ShowRequiredAsync(sandbox, id)).GetProperty("revision").GetInt32());
@@ -125,7 +125,7 @@ public class ServiceIntakeTests
     [Fact]
     public async Task A_byte_identical_resend_is_archived_as_a_duplicate_and_not_stored_again()
     {
-        using var sandbox = new ServiceSandbox();
+        using var sandbox = new ServiceSandbox(postgres: postgres);
         var export = ExportText.FromSample(Benzamide).WithBatchId("E2E-DUP-1");
         using var service = await sandbox.StartAsync();
 
@@ -140,14 +140,14 @@ public class ServiceIntakeTests
         Assert.Equal(1, shown.GetProperty("revision").GetInt32());
         Assert.Equal(1, shown.GetProperty("revisions").GetInt32());
         Assert.Equal("dup-export.csv", shown.GetProperty("sourceFile").GetString());
-        Assert.Equal(1, sandbox.Data.Scalar("SELECT COUNT(*) FROM batch_revision"));
-        Assert.Equal(export.DataRowCount, sandbox.Data.Scalar("SELECT coalesce(sum(line_count), 0) FROM raw_rows"));
+        Assert.Equal(1, sandbox.Scalar("SELECT COUNT(*) FROM batch_revision"));
+        Assert.Equal(export.DataRowCount, sandbox.Scalar("SELECT coalesce(sum(line_count), 0) FROM raw_rows"));
     }
 
     [Fact]
     public async Task A_re_export_with_one_quantity_changed_becomes_revision_2_and_supersedes_revision_1()
     {
-        using var sandbox = new ServiceSandbox();
+        using var sandbox = new ServiceSandbox(postgres: postgres);
         var first = ExportText.FromSample(Benzamide).WithBatchId("E2E-REV-1");
         // Line 18: product drum 1, 85.8 kg of N-benzylbenzamide, re-keyed as 95.8 kg.
         Assert.Contains(",product,NBB,,85.8,kg,99.6,", first.Line(18), StringComparison.Ordinal);
@@ -172,7 +172,7 @@ public class ServiceIntakeTests
         // 10.0 kg more product at the drum's assay of 99.6 % (line 18): 9.96 kg more actual product.
         var more = latest.GetProperty("steps")[0].GetProperty("actualKg").GetDouble() - earlier.GetProperty("steps")[0].GetProperty("actualKg").GetDouble();
         Assert.Equal(9.96, more, 0.002);
-        Assert.Equal(1, sandbox.Data.Scalar("SELECT COUNT(*) FROM batch_revision WHERE superseded_by IS NOT NULL"));
+        Assert.Equal(1, sandbox.Scalar("SELECT COUNT(*) FROM batch_revision WHERE superseded_by IS NOT NULL"));
     }
 
     /// <summary>The steps as <c>check --json</c> reconciles the complete file: what a correct ingest must store.</summary>
@@ -191,3 +191,9 @@ public class ServiceIntakeTests
     private static async Task<JsonElement> ShowRequiredAsync(ServiceSandbox sandbox, string batch, int? revision = null) =>
         await sandbox.ShowAsync(batch, revision) ?? throw new Xunit.Sdk.XunitException($"batch {batch} is not stored");
 }
+
+/// <summary>The tests above on the embedded store.</summary>
+public sealed class ServiceIntakeTestsOnSqlite() : ServiceIntakeTests(postgres: false);
+
+/// <summary>The tests above on PostgreSQL (a site of its own on the tests' server).</summary>
+public sealed class ServiceIntakeTestsOnPostgresql() : ServiceIntakeTests(postgres: true);

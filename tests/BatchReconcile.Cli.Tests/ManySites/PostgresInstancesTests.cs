@@ -22,7 +22,7 @@ public sealed class PostgresInstancesTests(ITestOutputHelper output)
     {
         const int files = 500;
         using var sandbox = new ServiceSandbox(settleSeconds: 0.3, rescanSeconds: 0.5, groupCommitMaxFiles: 32);
-        var site = OnPostgres(sandbox, PostgresTestServer.ConnectionString);
+        var site = sandbox.UsePostgres(PostgresTestServer.ConnectionString);
         try
         {
             using var first = await sandbox.StartAsync();
@@ -36,11 +36,10 @@ public sealed class PostgresInstancesTests(ITestOutputHelper output)
             await sandbox.WaitUntilTakenAsync(files, first);
             Assert.False(second.HasExited, second.Stderr);
 
-            var look = new SiteLook(PostgresTestServer.ConnectionString, site);
-            Assert.Equal(files, look.Scalar("SELECT count(*) FROM ingest_log"));
-            Assert.Equal(files, look.Scalar("SELECT count(DISTINCT sha256) FROM ingest_log WHERE outcome = 'stored'"));
-            Assert.Equal(files, look.Scalar("SELECT count(*) FROM batch"));
-            Assert.Equal(files, look.Scalar("SELECT count(*) FROM batch_revision"));
+            Assert.Equal(files, sandbox.Scalar("SELECT count(*) FROM ingest_log"));
+            Assert.Equal(files, sandbox.Scalar("SELECT count(DISTINCT sha256) FROM ingest_log WHERE outcome = 'stored'"));
+            Assert.Equal(files, sandbox.Scalar("SELECT count(*) FROM batch"));
+            Assert.Equal(files, sandbox.Scalar("SELECT count(*) FROM batch_revision"));
             Assert.Equal(files, sandbox.Data.ArchivedFiles().Count);
             Assert.Empty(sandbox.Data.QuarantinedFiles());
 
@@ -54,8 +53,8 @@ public sealed class PostgresInstancesTests(ITestOutputHelper output)
             var verify = await ProgramRunner.RunWithAsync(sandbox.Environment, "audit", "verify", "--config", sandbox.Config, "--data", sandbox.Data.Path);
             Assert.True(verify.ExitCode == 0, verify.Stdout + verify.Stderr);
             Assert.StartsWith("audit trail intact: ", verify.Stdout, StringComparison.Ordinal);
-            Assert.Equal(files, look.Scalar("SELECT count(*) FROM audit_event WHERE kind LIKE 'ingest.%'"));
-            Assert.Equal(files, look.Scalar("SELECT count(*) FROM audit_event WHERE kind = 'ingest.stored'"));
+            Assert.Equal(files, sandbox.Scalar("SELECT count(*) FROM audit_event WHERE kind LIKE 'ingest.%'"));
+            Assert.Equal(files, sandbox.Scalar("SELECT count(*) FROM audit_event WHERE kind = 'ingest.stored'"));
             Assert.Equal(0, await first.TerminateAsync(TimeSpan.FromSeconds(60)));
             Assert.Equal(0, await second.TerminateAsync(TimeSpan.FromSeconds(60)));
         }
@@ -70,8 +69,8 @@ public sealed class PostgresInstancesTests(ITestOutputHelper output)
     {
         using var north = new ServiceSandbox(rescanSeconds: 0.5);
         using var south = new ServiceSandbox(rescanSeconds: 0.5);
-        var northSite = OnPostgres(north, PostgresTestServer.ConnectionString);
-        var southSite = OnPostgres(south, PostgresTestServer.ConnectionString);
+        var northSite = north.UsePostgres(PostgresTestServer.ConnectionString);
+        var southSite = south.UsePostgres(PostgresTestServer.ConnectionString);
         try
         {
             using var northService = await north.StartAsync();
@@ -103,11 +102,10 @@ public sealed class PostgresInstancesTests(ITestOutputHelper output)
                 Assert.StartsWith("audit trail intact: ", verify.Stdout, StringComparison.Ordinal);
             }
 
-            foreach (var site in new[] { northSite, southSite })
+            foreach (var sandbox in new[] { north, south })
             {
-                var look = new SiteLook(PostgresTestServer.ConnectionString, site);
-                Assert.Equal(21, look.Scalar("SELECT count(*) FROM ingest_log"));
-                Assert.Equal(21, look.Scalar("SELECT count(*) FROM audit_event WHERE kind = 'ingest.stored'"));
+                Assert.Equal(21, sandbox.Scalar("SELECT count(*) FROM ingest_log"));
+                Assert.Equal(21, sandbox.Scalar("SELECT count(*) FROM audit_event WHERE kind = 'ingest.stored'"));
             }
         }
         finally
@@ -123,7 +121,7 @@ public sealed class PostgresInstancesTests(ITestOutputHelper output)
         const int files = 300;
         using var cluster = await OwnCluster.StartAsync();
         using var sandbox = new ServiceSandbox(settleSeconds: 0.3, rescanSeconds: 0.5, groupCommitMaxFiles: 16);
-        var site = OnPostgres(sandbox, cluster.ConnectionString);
+        sandbox.UsePostgres(cluster.ConnectionString);
         using var service = await sandbox.StartAsync();
         var export = ExportText.FromSample(Benzamide);
         for (var i = 0; i < files; i++)
@@ -147,10 +145,9 @@ public sealed class PostgresInstancesTests(ITestOutputHelper output)
         await cluster.StartServerAsync();
         await sandbox.WaitUntilTakenAsync(files, service);
 
-        var look = new SiteLook(cluster.ConnectionString, site);
-        Assert.Equal(files, look.Scalar("SELECT count(*) FROM ingest_log WHERE outcome = 'stored'"));
-        Assert.Equal(files, look.Scalar("SELECT count(*) FROM ingest_log"));
-        Assert.Equal(files, look.Scalar("SELECT count(*) FROM batch_revision"));
+        Assert.Equal(files, sandbox.Scalar("SELECT count(*) FROM ingest_log WHERE outcome = 'stored'"));
+        Assert.Equal(files, sandbox.Scalar("SELECT count(*) FROM ingest_log"));
+        Assert.Equal(files, sandbox.Scalar("SELECT count(*) FROM batch_revision"));
         Assert.Empty(sandbox.Data.QuarantinedFiles());
         Assert.Contains("intake resumed", service.Stderr, StringComparison.Ordinal);
         var verify = await ProgramRunner.RunWithAsync(sandbox.Environment, "audit", "verify", "--config", sandbox.Config, "--data", sandbox.Data.Path);
@@ -163,7 +160,7 @@ public sealed class PostgresInstancesTests(ITestOutputHelper output)
     {
         using var sandbox = new ServiceSandbox();
         var builder = new NpgsqlConnectionStringBuilder(PostgresTestServer.ConnectionString) { Password = "not-the-password-4711" };
-        OnPostgres(sandbox, builder.ConnectionString);
+        sandbox.UsePostgres(builder.ConnectionString);
         var wrong = await ProgramRunner.RunWithAsync(sandbox.Environment, "run", "--config", sandbox.Config, "--data", sandbox.Data.Path);
 
         builder.Port = FreePort();
@@ -185,16 +182,6 @@ public sealed class PostgresInstancesTests(ITestOutputHelper output)
 
     private static string Batch(int i) => "MS-" + i.ToString("D4", CultureInfo.InvariantCulture);
 
-    /// <summary>Points the sandbox's processes at a new site of the PostgreSQL database; returns the site code.</summary>
-    private static string OnPostgres(ServiceSandbox sandbox, string connectionString)
-    {
-        var site = PostgresTestServer.NewSiteCode();
-        sandbox.Environment["Storage__Provider"] = "postgresql";
-        sandbox.Environment["Storage__ConnectionString"] = connectionString;
-        sandbox.Environment["Site__Code"] = site;
-        return site;
-    }
-
     private static HashSet<string> StoredLines(string stderr) =>
         stderr.Split('\n').Where(l => l.Contains(" batch MS-", StringComparison.Ordinal) && l.Contains(" new as revision 1", StringComparison.Ordinal))
             .Select(l => l[l.IndexOf(" batch MS-", StringComparison.Ordinal)..].Split(' ')[2]).ToHashSet(StringComparer.Ordinal);
@@ -206,19 +193,6 @@ public sealed class PostgresInstancesTests(ITestOutputHelper output)
         using var listener = new System.Net.Sockets.TcpListener(System.Net.IPAddress.Loopback, 0);
         listener.Start();
         return ((System.Net.IPEndPoint)listener.LocalEndpoint).Port;
-    }
-
-    /// <summary>Direct reads of one site's tables.</summary>
-    private sealed class SiteLook(string connectionString, string site)
-    {
-        public long Scalar(string sql)
-        {
-            var builder = new NpgsqlConnectionStringBuilder(connectionString) { SearchPath = "site_" + site.ToLowerInvariant(), Pooling = false };
-            using var connection = new NpgsqlConnection(builder.ConnectionString);
-            connection.Open();
-            using var command = new NpgsqlCommand(sql, connection);
-            return Convert.ToInt64(command.ExecuteScalar(), CultureInfo.InvariantCulture);
-        }
     }
 
     /// <summary>A cluster of this test alone (scripts/pg-cluster), whose server the test stops and starts.</summary>
